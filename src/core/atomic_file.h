@@ -1,0 +1,19 @@
+// Output files appear whole or not at all: content goes to a temporary file
+// beside the target, which is renamed over it only after a successful write.
+#pragma once
+
+#include <filesystem>
+#include <functional>
+#include <string_view>
+
+namespace vicinal {
+
+void write_file_atomically(const std::filesystem::path& target, std::string_view content);
+
+// For writers that need a path of their own (cairo, SQLite backups): `write`
+// receives a temporary path in the target's folder; on success it is renamed
+// to `target`, on any exception it is removed and the exception rethrown.
+void write_via_temporary(const std::filesystem::path& target,
+                         const std::function<void(const std::filesystem::path&)>& write);
+
+}  // namespace vicinal

@@ -1,0 +1,178 @@
+#include "core/csv.h"
+
+#include <fmt/format.h>
+
+#include <fstream>
+#include <sstream>
+
+#include "core/parse.h"
+
+namespace vicinal {
+
+namespace {
+
+// Checks one UTF-8 sequence starting at text[i]; returns its length or 0.
+std::size_t utf8_length(std::string_view text, std::size_t i) {
+  const auto b = static_cast<unsigned char>(text[i]);
+  std::size_t n = b < 0x80 ? 1 : (b >> 5) == 0x6 ? 2 : (b >> 4) == 0xE ? 3 : (b >> 3) == 0x1E ? 4 : 0;
+  if (n == 0 || i + n > text.size()) return 0;
+  for (std::size_t k = 1; k < n; ++k)
+    if ((static_cast<unsigned char>(text[i + k]) >> 6) != 0x2) return 0;
+  return n;
+}
+
+}  // namespace
+
+CsvTable CsvTable::parse(std::string_view text, const std::string& source) {
+  CsvTable table;
+  table.source_ = source;
+  if (text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);
+
+  std::vector<std::vector<std::string>> records;
+  std::vector<long> record_lines;
+  std::vector<std::string> fields;
+  std::string field;
+  bool in_quotes = false, field_was_quoted = false, record_open = false;
+  long line = 1, column = 1, record_line = 1, quote_line = 0, quote_column = 0;
+
+  auto end_field = [&] {
+    fields.push_back(field_was_quoted ? field : std::string(trim(field)));
+    field.clear();
+    field_was_quoted = false;
+  };
+  auto end_record = [&] {
+    end_field();
+    const bool blank = fields.size() == 1 && fields[0].empty();
+    if (!blank) {
+      records.push_back(std::move(fields));
+      record_lines.push_back(record_line);
+    }
+    fields.clear();
+    record_open = false;
+  };
+
+  for (std::size_t i = 0; i < text.size();) {
+    const char c = text[i];
+    if (c == '\0')
+      throw Error("the file contains a NUL byte; is it a binary file or UTF-16 text?",
+                  {source, line, column}, "save it as UTF-8 CSV");
+    const std::size_t n = utf8_length(text, i);
+    if (n == 0)
+      throw Error("the file is not valid UTF-8 text", {source, line, column},
+                  "save it as UTF-8 CSV");
+    if (!record_open) {
+      record_open = true;
+      record_line = line;
+    }
+    if (in_quotes) {
+      if (c == '"') {
+        if (i + 1 < text.size() && text[i + 1] == '"') {
+          field += '"';
+          i += 2;
+          column += 2;
+          continue;
+        }
+        in_quotes = false;
+      } else {
+        field.append(text.substr(i, n));
+        if (c == '\n' || (c == '\r' && !(i + 1 < text.size() && text[i + 1] == '\n'))) {
+          ++line;
+          column = 0;
+        }
+      }
+      i += n;
+      column += 1;
+      continue;
+    }
+    if (c == '"') {
+      if (!trim(field).empty())
+        throw Error("a quote inside an unquoted field", {source, line, column},
+                    "quote the whole field and double the inner quotes");
+      field.clear();
+      in_quotes = field_was_quoted = true;
+      quote_line = line;
+      quote_column = column;
+    } else if (c == ',') {
+      end_field();
+    } else if (c == '\n' || c == '\r') {
+      if (c == '\r' && i + 1 < text.size() && text[i + 1] == '\n') ++i;
+      end_record();
+      ++line;
+      column = 0;
+    } else if (field_was_quoted) {
+      if (c != ' ' && c != '\t')
+        throw Error("text after a closing quote", {source, line, column},
+                    "a quoted field must end at the next comma or line end");
+    } else {
+      field.append(text.substr(i, n));
+    }
+    i += n;
+    column += 1;
+  }
+  if (in_quotes)
+    throw Error("a quoted field is never closed", {source, quote_line, quote_column});
+  if (record_open) end_record();
+
+  if (records.empty()) throw Error("the file is empty; a header row is required", {source});
+  table.header_ = std::move(records.front());
+  for (std::size_t c = 0; c < table.header_.size(); ++c) {
+    if (table.header_[c].empty())
+      throw Error(fmt::format("header column {} has no name", c + 1),
+                  {source, record_lines.front(), 0});
+    for (std::size_t d = 0; d < c; ++d)
+      if (table.header_[d] == table.header_[c])
+        throw Error(fmt::format("column '{}' appears twice in the header", table.header_[c]),
+                    {source, record_lines.front(), 0});
+  }
+  for (std::size_t r = 1; r < records.size(); ++r) {
+    if (records[r].size() != table.header_.size())
+      throw Error(fmt::format("this row has {} fields but the header has {}", records[r].size(),
+                              table.header_.size()),
+                  {source, record_lines[r], 0});
+    table.rows_.push_back({record_lines[r], std::move(records[r])});
+  }
+  return table;
+}
+
+std::string read_text_file(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw Error("cannot open the file for reading", {path}, "check the path and permissions");
+  std::ostringstream buffer;
+  buffer << in.rdbuf();
+  if (in.bad()) throw Error("reading the file failed", {path});
+  return buffer.str();
+}
+
+CsvTable CsvTable::read_file(const std::string& path) { return parse(read_text_file(path), path); }
+
+std::optional<std::size_t> CsvTable::column(std::string_view name) const {
+  for (std::size_t c = 0; c < header_.size(); ++c)
+    if (header_[c] == name) return c;
+  return std::nullopt;
+}
+
+std::size_t CsvTable::require_column(std::string_view name) const {
+  if (auto c = column(name)) return *c;
+  throw Error(fmt::format("the header has no '{}' column", name), {source_, 1, 0},
+              fmt::format("columns found: {}", fmt::join(header_, ", ")));
+}
+
+Location CsvTable::where(const CsvRow& row, std::size_t column) const {
+  Location at{source_, row.line};
+  at.field_number = static_cast<long>(column + 1);
+  if (column < header_.size()) at.field = header_[column];
+  return at;
+}
+
+std::string csv_escape(std::string_view field) {
+  if (field.find_first_of(",\"\r\n") == std::string_view::npos && trim(field).size() == field.size())
+    return std::string(field);
+  std::string out = "\"";
+  for (char c : field) {
+    if (c == '"') out += '"';
+    out += c;
+  }
+  return out + "\"";
+}
+
+}  // namespace vicinal

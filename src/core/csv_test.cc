@@ -1,0 +1,56 @@
+#include "core/csv.h"
+
+#include <gtest/gtest.h>
+
+namespace vicinal {
+namespace {
+
+TEST(Csv, ReadsQuotedFieldsAndLineEndings) {
+  const auto t = CsvTable::parse("a,b\r\n\"x, \"\"y\"\"\",2\n3,\"multi\nline\"\r4,5\n", "t.csv");
+  ASSERT_EQ(t.rows().size(), 3u);
+  EXPECT_EQ(t.rows()[0].fields[0], "x, \"y\"");
+  EXPECT_EQ(t.rows()[1].fields[1], "multi\nline");
+  EXPECT_EQ(t.rows()[1].line, 3);
+  EXPECT_EQ(t.rows()[2].line, 5);
+  EXPECT_EQ(t.rows()[2].fields[0], "4");
+}
+
+TEST(Csv, SkipsBomAndBlankLines) {
+  const auto t = CsvTable::parse("\xEF\xBB\xBFname,j_hz\n\nA,1.5\n\n", "t.csv");
+  EXPECT_EQ(t.header()[0], "name");
+  ASSERT_EQ(t.rows().size(), 1u);
+  EXPECT_EQ(t.require_column("j_hz"), 1u);
+}
+
+TEST(Csv, MalformedInputNamesThePlace) {
+  auto message = [](std::string_view text) {
+    try {
+      CsvTable::parse(text, "bad.csv");
+    } catch (const Error& e) {
+      return e.one_line();
+    }
+    return std::string("no error");
+  };
+  EXPECT_NE(message("a,b\n1,2,3\n").find("bad.csv:2"), std::string::npos);
+  EXPECT_NE(message("a,a\n1,2\n").find("appears twice"), std::string::npos);
+  EXPECT_NE(message(std::string_view("a\n1\0", 5)).find("NUL"), std::string::npos);
+  EXPECT_NE(message("a\n\"open\n").find("never closed"), std::string::npos);
+  EXPECT_NE(message("a\n\xff\n").find("UTF-8"), std::string::npos);
+  EXPECT_NE(message("").find("empty"), std::string::npos);
+  EXPECT_NE(message("a,b\n1,2\n").find("no error"), std::string::npos);
+}
+
+TEST(Csv, EscapeRoundTrips) {
+  const std::string tricky = "semi;colon, \"quoted\"\nnewline";
+  const auto t = CsvTable::parse("x\n" + csv_escape(tricky) + "\n", "t.csv");
+  EXPECT_EQ(t.rows()[0].fields[0], tricky);
+  EXPECT_EQ(csv_escape("plain"), "plain");
+}
+
+TEST(Csv, FieldLocationNamesColumn) {
+  const auto t = CsvTable::parse("nuclei,j_hz\n1,x\n", "c.csv");
+  EXPECT_EQ(t.where(t.rows()[0], 1).describe(), "c.csv:2: column 2 'j_hz'");
+}
+
+}  // namespace
+}  // namespace vicinal
