@@ -6,7 +6,7 @@ set -euo pipefail
 
 packages=(
   # toolchain
-  build-essential cmake pkg-config git
+  build-essential cmake pkg-config git ccache
   # core libraries
   libsqlite3-dev sqlite3 libeigen3-dev libceres-dev libopenbabel-dev openbabel
   libcli11-dev nlohmann-json3-dev libfmt-dev libfast-float-dev libcairo2-dev

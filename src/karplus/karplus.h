@@ -7,6 +7,7 @@
 #pragma once
 
 #include <array>
+#include <cstddef>
 #include <span>
 #include <string>
 #include <vector>
@@ -31,6 +32,14 @@ struct Substituent {
   int orientation = 1;
 };
 
+// An H-C-C-H fragment carries at most four non-hydrogen substituents; more is
+// a vicinal::Error (the evaluation keeps them in a fixed-size buffer).
+inline constexpr std::size_t kMaxSubstituents = 4;
+
+// The beta-substituent correction of the Haasnoot equation:
+// delta_chi = delta_chi_alpha - p7 * sum_j delta_chi_beta_j.
+double beta_corrected_delta_chi(double delta_chi_alpha, std::span<const double> delta_chi_beta, double p7);
+
 struct ParameterSet {
   std::string id;              // our own identifier, e.g. "hh-haasnoot-1980-general"
   std::string title;           // one-line description for tables
@@ -48,6 +57,13 @@ struct ParameterSet {
   std::string doi;
   std::string notes;
   std::string file;            // the file it was loaded from
+  std::string short_citation;  // "Hu & Bax 1997", for tables and legends
+  std::vector<std::string> coefficient_names;  // names in `coefficients` order, as in the file
+  int substituent_count = 0;   // Haasnoot sets: substituents the set was fitted for (0 = all patterns)
+
+  bool is_haasnoot() const { return form == Form::Haasnoot; }
+  // P7 of a Haasnoot set; vicinal::Error for other forms.
+  double beta_factor() const;
 };
 
 // The number of substituents a Haasnoot set applies to is part of its id and
@@ -59,15 +75,22 @@ double j_hz(const ParameterSet& set, double dihedral_deg, std::span<const Substi
 void j_hz(const ParameterSet& set, std::span<const double> dihedral_deg, std::span<double> out,
           std::span<const Substituent> substituents = {});
 
-// Smallest and largest J the curve reaches over [-180, 180).
+// Smallest and largest J the curve reaches over [-180, 180): every local
+// extremum is found on a 0.1 degree scan and refined, so the J values are exact
+// to ~1e-12 Hz and their positions to ~1e-6 degrees (a flat extremum cannot be
+// located better from double-precision function values).
 struct JRange {
   double min_hz, min_at_deg, max_hz, max_at_deg;
 };
 JRange j_range(const ParameterSet& set, std::span<const Substituent> substituents = {});
 
 struct AngleInterval {
-  double from_deg, to_deg;  // within [-180, 180]; from < to
+  double from_deg, to_deg;  // within [-180, 180]; from < to, or from == to where the band
+                            // only touches an extremum of the curve
   double best_deg;          // where the curve equals J (or comes closest) inside the interval
+  // An interval that runs through +-180 is split into [from, 180] and
+  // [-180, to]; both pieces carry wraps = true.
+  bool wraps = false;
 };
 
 struct AngleSolution {
@@ -79,6 +102,9 @@ struct AngleSolution {
 };
 
 // Every dihedral interval in [-180, 180) where |J(curve) - j| <= k*sqrt(sigma^2 + rms^2).
+// Interval ends and exact roots are found by bisection on the monotonic pieces
+// between extrema (to ~1e-10 degrees), so a root at an extremum (tangential
+// touch) is found too; exact_deg lists up to four roots for cos^2 curves.
 // Throws vicinal::Error when j lies further than the tolerance outside the curve's
 // range (naming the nearest attainable J), or on negative sigma / non-finite input.
 AngleSolution allowed_dihedrals(const ParameterSet& set, double j_hz, double sigma_hz, double k = 2.0,
@@ -101,5 +127,7 @@ class SetCatalog {
 };
 
 std::string form_name(Form form);
+// "three-term", "piecewise-three-term", "fourier", "haasnoot"; vicinal::Error otherwise.
+Form parse_form(const std::string& name);
 
 }  // namespace vicinal::karplus

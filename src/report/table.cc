@@ -13,13 +13,22 @@ std::size_t width(const std::string& s) {
       std::count_if(s.begin(), s.end(), [](char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
 }
 
-bool looks_numeric(const std::string& s) {
+}  // namespace
+
+bool is_numeric_cell(const std::string& s) {
   if (s.empty()) return true;  // blank cells do not decide alignment
   return s.find_first_not_of("0123456789+-.eE%() ,[]") == std::string::npos &&
          s.find_first_of("0123456789") != std::string::npos;
 }
 
-}  // namespace
+std::vector<bool> numeric_columns(const std::vector<std::string>& header,
+                                  const std::vector<std::vector<std::string>>& rows) {
+  std::vector<bool> numeric(header.size(), !rows.empty());
+  for (const auto& row : rows)
+    for (std::size_t c = 0; c < header.size() && c < row.size(); ++c)
+      if (!is_numeric_cell(row[c])) numeric[c] = false;
+  return numeric;
+}
 
 TextTable::TextTable(std::vector<std::string> header) : header_(std::move(header)) {}
 
@@ -31,14 +40,10 @@ void TextTable::add_row(std::vector<std::string> cells) {
 std::string TextTable::render() const {
   const std::size_t n = header_.size();
   std::vector<std::size_t> widths(n);
-  std::vector<bool> right(n, true);
+  const std::vector<bool> right = numeric_columns(header_, rows_);
   for (std::size_t c = 0; c < n; ++c) {
     widths[c] = width(header_[c]);
-    for (const auto& row : rows_) {
-      widths[c] = std::max(widths[c], width(row[c]));
-      if (!looks_numeric(row[c])) right[c] = false;
-    }
-    if (rows_.empty()) right[c] = false;
+    for (const auto& row : rows_) widths[c] = std::max(widths[c], width(row[c]));
   }
   auto line = [&](const std::vector<std::string>& cells) {
     std::string out;

@@ -1,0 +1,212 @@
+// The library CSV: one row per coupling. Columns (any order; header names as
+// below; unknown columns are refused so that a misspelt one is not lost):
+//   compound                 name; rows without a structure reuse the compound
+//                            of that name given earlier in the file
+//   smiles | structure | molfile   the structure, one of them: SMILES, a file
+//                            path relative to the CSV, or a molfile/SDF record inline
+//   labels                   optional labels CSV (label,atom), relative to the CSV
+//   inchikey                 optional; checked against the structure
+//   measurement, solvent, temperature_k, field_mhz, ph, instrument, method,
+//   measured_by, measured_on, source, imported_from      the measurement set
+//   nuclei, j_hz, sigma_hz, set, note                    predict/coupling_list.h
+//   sign_known               yes/no (blank = no): the sign of J was determined
+//   origin                   where the value came from (default: this file)
+#include <fmt/format.h>
+
+#include <filesystem>
+#include <map>
+#include <memory>
+#include <set>
+
+#include "core/csv.h"
+#include "core/parse.h"
+#include "library/entry_builder.h"
+#include "library/formats.h"
+#include "predict/coupling_list.h"
+
+namespace vicinal::library {
+
+namespace {
+
+const std::vector<std::string> kCompoundColumns = {"compound", "smiles", "structure", "molfile", "labels", "inchikey"};
+const std::vector<std::string> kSetColumns = {"measurement", "solvent",     "temperature_k", "field_mhz",
+                                              "ph",          "instrument",  "method",        "measured_by",
+                                              "measured_on", "source",      "imported_from"};
+const std::vector<std::string> kCouplingColumns = {"sign_known", "origin"};
+
+std::string resolve_relative(const std::string& csv_path, const std::string& file) {
+  std::filesystem::path p(file);
+  if (p.is_absolute()) return p.string();
+  return (std::filesystem::path(csv_path).parent_path() / p).lexically_normal().string();
+}
+
+bool parse_yes_no(const std::string& text, const Location& where) {
+  const std::string t{trim(text)};
+  if (t.empty() || t == "no" || t == "0" || t == "false") return false;
+  if (t == "yes" || t == "1" || t == "true") return true;
+  throw Error(fmt::format("'{}' is not yes or no", t), where);
+}
+
+std::string fmt_optional(const std::optional<double>& v) { return v ? fmt::format("{}", *v) : std::string(); }
+
+}  // namespace
+
+ImportResult read_csv(const std::string& path, const ImportOptions& options) {
+  const CsvTable table = CsvTable::read_file(path);
+  const predict::CouplingRowParser parser(table, true);
+
+  std::set<std::string> known(kCompoundColumns.begin(), kCompoundColumns.end());
+  known.insert(kSetColumns.begin(), kSetColumns.end());
+  known.insert(kCouplingColumns.begin(), kCouplingColumns.end());
+  for (const auto& name : parser.extra_columns())
+    if (!known.count(name)) {
+      Location at = Location::field_in(path, name);
+      at.line = 1;
+      throw Error(fmt::format("unknown column '{}'", name), at,
+                  "library columns are compound, smiles, structure, molfile, labels, inchikey, measurement, "
+                  "solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, measured_on, source, "
+                  "imported_from, nuclei, j_hz, sigma_hz, set, note, sign_known, origin");
+    }
+  auto column = [&](const std::string& name) { return table.column(name); };
+  auto field = [&](const CsvRow& row, const std::string& name) -> std::string {
+    const auto c = column(name);
+    return c ? std::string(trim(row.fields[*c])) : std::string();
+  };
+  auto number = [&](const CsvRow& row, const std::string& name) -> std::optional<double> {
+    const auto c = column(name);
+    if (!c || trim(row.fields[*c]).empty()) return std::nullopt;
+    return parse_double(trim(row.fields[*c]), table.where(row, *c));
+  };
+  auto where = [&](const CsvRow& row, const std::string& name) {
+    const auto c = column(name);
+    return c ? table.where(row, *c) : Location(path, row.line);
+  };
+
+  ImportResult result;
+  // Compounds by the way they were given; a failed structure stays failed.
+  std::map<std::string, std::unique_ptr<CompoundBuilder>> builders;
+  std::map<std::string, std::string> failed;
+  std::map<std::string, std::string> key_of_name;  // compound name -> builder key
+  std::map<std::string, std::size_t> entry_of_key;
+  std::map<std::string, std::size_t> set_of_key;  // entry key + conditions + imported_from -> set index
+
+  for (const CsvRow& row : table.rows()) {
+    try {
+      const predict::CouplingRow parsed = parser.parse(row);
+      const std::string name = field(row, "compound");
+      StructureSpec spec;
+      std::string spec_column;
+      int given = 0;
+      for (const char* col : {"smiles", "structure", "molfile"}) {
+        const auto c = column(col);
+        if (!c || trim(row.fields[*c]).empty()) continue;
+        ++given;
+        spec_column = col;
+        // An inline molfile keeps its exact text (leading spaces matter).
+        spec.text = spec_column == "molfile" ? row.fields[*c] : std::string(trim(row.fields[*c]));
+      }
+      if (given > 1)
+        throw Error("give the structure once: smiles, structure or molfile", Location(path, row.line));
+      std::string key;
+      if (given == 0) {
+        auto it = key_of_name.find(name);
+        if (name.empty() || it == key_of_name.end())
+          throw Error(name.empty() ? "the row names no compound and no structure"
+                                   : fmt::format("compound '{}' has no structure in an earlier row", name),
+                      where(row, "compound"), "give smiles, structure or molfile on the compound's first row");
+        key = it->second;
+      } else {
+        spec.kind = spec_column == "smiles"      ? StructureSpec::Kind::Smiles
+                    : spec_column == "structure" ? StructureSpec::Kind::File
+                                                 : StructureSpec::Kind::Molfile;
+        if (spec.kind == StructureSpec::Kind::File) spec.text = resolve_relative(path, spec.text);
+        if (const std::string labels = field(row, "labels"); !labels.empty())
+          spec.labels_file = resolve_relative(path, labels);
+        const std::string display = name.empty() ? (spec.kind == StructureSpec::Kind::Molfile ? "unnamed" : spec.text)
+                                                 : name;
+        key = display + '\x1f' + spec_column + '\x1f' + spec.text + '\x1f' + spec.labels_file;
+        if (auto f = failed.find(key); f != failed.end()) throw Error(f->second, where(row, spec_column));
+        if (!builders.count(key)) {
+          try {
+            builders[key] = std::make_unique<CompoundBuilder>(display, spec, where(row, spec_column));
+          } catch (const Error& e) {
+            failed[key] = e.what_happened();
+            throw;
+          }
+        }
+        if (!name.empty()) key_of_name[name] = key;
+      }
+      CompoundBuilder& builder = *builders.at(key);
+      if (const std::string key_given = field(row, "inchikey");
+          !key_given.empty() && key_given != builder.record().inchikey)
+        throw Error(fmt::format("the InChIKey {} does not match the structure ({})", key_given,
+                                builder.record().inchikey),
+                    where(row, "inchikey"), "check that the structure is the intended compound");
+
+      SetRecord set_template;
+      Conditions& k = set_template.conditions;
+      k.name = field(row, "measurement");
+      k.solvent = field(row, "solvent");
+      k.temperature_k = number(row, "temperature_k");
+      k.field_mhz = number(row, "field_mhz");
+      k.ph = number(row, "ph");
+      k.instrument = field(row, "instrument");
+      k.method = field(row, "method");
+      k.measured_by = field(row, "measured_by");
+      k.measured_on = field(row, "measured_on");
+      k.source = field(row, "source");
+      check_conditions(k, Location(path, row.line));
+      set_template.imported_from = field(row, "imported_from");
+      if (set_template.imported_from.empty()) set_template.imported_from = path;
+
+      CouplingRecord c = builder.coupling(parsed.nuclei, *parsed.j_hz, parsed.sigma_hz, Location(path, row.line));
+      c.karplus_set = parsed.set;
+      c.note = parsed.note;
+      c.sign_known = parse_yes_no(field(row, "sign_known"), where(row, "sign_known"));
+      c.origin = field(row, "origin");
+      if (c.origin.empty()) c.origin = path;
+
+      auto it = entry_of_key.find(key);
+      if (it == entry_of_key.end()) {
+        it = entry_of_key.emplace(key, result.entries.size()).first;
+        result.entries.push_back({builder.record(), {}});
+      }
+      Entry& entry = result.entries[it->second];
+      const std::string set_key = std::to_string(it->second) + '\x1e' + conditions_key(k) + '\x1e' + set_template.imported_from;
+      auto [s, new_set] = set_of_key.emplace(set_key, entry.sets.size());
+      if (new_set) entry.sets.push_back(std::move(set_template));
+      entry.sets[s->second].couplings.push_back(std::move(c));
+      ++result.couplings;
+    } catch (const Error& e) {
+      if (!options.skip_bad) throw;
+      result.rejects.push_back({fmt::format("{}:{}", path, row.line), e.one_line()});
+    }
+  }
+  return result;
+}
+
+std::string write_csv(const std::vector<Entry>& entries) {
+  std::string out =
+      "compound,inchikey,molfile,measurement,solvent,temperature_k,field_mhz,ph,instrument,method,measured_by,"
+      "measured_on,source,imported_from,nuclei,j_hz,sigma_hz,sign_known,set,note,origin\n";
+  for (const auto& e : entries) {
+    bool first_row = true;
+    for (const auto& s : e.sets) {
+      const auto& k = s.conditions;
+      for (const auto& c : s.couplings) {
+        const std::vector<std::string> fields = {
+            e.compound.name, e.compound.inchikey, first_row ? e.compound.molfile : "", k.name, k.solvent,
+            fmt_optional(k.temperature_k), fmt_optional(k.field_mhz), fmt_optional(k.ph), k.instrument, k.method,
+            k.measured_by, k.measured_on, k.source, s.imported_from, c.nucleus_a + "," + c.nucleus_b,
+            fmt::format("{}", c.j_hz), fmt_optional(c.sigma_hz), c.sign_known ? "yes" : "no", c.karplus_set, c.note,
+            c.origin};
+        for (std::size_t i = 0; i < fields.size(); ++i) out += (i ? "," : "") + csv_escape(fields[i]);
+        out += '\n';
+        first_row = false;
+      }
+    }
+  }
+  return out;
+}
+
+}  // namespace vicinal::library

@@ -1,0 +1,53 @@
+// The library's exchange formats, chosen by file extension:
+//   .csv   the couplings CSV (predict/coupling_list.h) plus compound and
+//          condition columns (see kCsvColumns in csv_format.cc and DEVELOPERS.md)
+//   .json  {"format": "vicinal-library", "version": 1, "compounds": [...]}
+//   .sdf   one record per compound; its couplings in the data field
+//          `vicinal_compound` (one line of JSON, the compound object without
+//          the structure), atom labels in `vicinal_atom_labels`
+// Export followed by import gives back the same library content.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "library/records.h"
+
+namespace vicinal::library {
+
+struct ImportOptions {
+  // Store the good rows and return the bad ones as rejects instead of failing
+  // on the first bad row.
+  bool skip_bad = false;
+};
+
+struct Reject {
+  std::string where;   // file:line (CSV) or file: compound[i].sets[j]... (JSON, SDF)
+  std::string reason;
+};
+
+struct ImportResult {
+  std::vector<Entry> entries;
+  std::vector<Reject> rejects;
+  std::size_t couplings = 0;  // couplings read successfully
+};
+
+// vicinal::Error (file, line, column and reason) on the first bad row unless
+// options.skip_bad; then nothing is returned.
+ImportResult read_exchange_file(const std::string& path, const ImportOptions& options);
+
+ImportResult read_csv(const std::string& path, const ImportOptions& options);
+ImportResult read_json(const std::string& path, const ImportOptions& options);
+ImportResult read_sdf(const std::string& path, const ImportOptions& options);
+
+std::string write_csv(const std::vector<Entry>& entries);
+std::string write_json(const std::vector<Entry>& entries);
+std::string write_sdf(const std::vector<Entry>& entries);
+
+// Writes entries to `path` atomically in the format its extension names.
+void write_exchange_file(const std::vector<Entry>& entries, const std::string& path);
+
+// The format an extension names ("csv", "json", "sdf"); vicinal::Error otherwise.
+std::string exchange_format(const std::string& path);
+
+}  // namespace vicinal::library

@@ -1,0 +1,109 @@
+// Coupling identity keys: the same coupling gets the same key whatever the
+// atom numbering; couplings that differ in 3D (diastereotopic protons, cis vs
+// trans across C=C) get different keys; enantiotopic protons, which give the
+// same couplings in an achiral solvent, share one.
+#include "library/identity.h"
+
+#include <gtest/gtest.h>
+#include <openbabel/atom.h>
+#include <openbabel/obiter.h>
+
+#include <algorithm>
+#include <numeric>
+#include <random>
+
+#include "structure/molecule_io.h"
+
+namespace vicinal::library {
+namespace {
+
+// The molecule with its atoms in a shuffled order; `where[i]` is the new
+// 1-based index of old atom i + 1. Coordinates move with the atoms.
+OpenBabel::OBMol shuffled(const OpenBabel::OBMol& mol, unsigned seed, std::vector<int>& where) {
+  OpenBabel::OBMol copy(mol);
+  std::vector<int> order(copy.NumAtoms());
+  std::iota(order.begin(), order.end(), 1);
+  std::mt19937 rng(seed);
+  std::shuffle(order.begin(), order.end(), rng);
+  std::vector<OpenBabel::OBAtom*> atoms;
+  for (int old : order) atoms.push_back(copy.GetAtom(old));
+  copy.RenumberAtoms(atoms);
+  where.assign(order.size(), 0);
+  for (std::size_t i = 0; i < order.size(); ++i) where[static_cast<std::size_t>(order[i] - 1)] = static_cast<int>(i) + 1;
+  return copy;
+}
+
+std::vector<int> hydrogens_on(OpenBabel::OBMol& mol, int heavy) {
+  std::vector<int> out;
+  FOR_NBORS_OF_ATOM(nb, mol.GetAtom(heavy)) if (nb->GetAtomicNum() == 1) out.push_back(static_cast<int>(nb->GetIdx()));
+  return out;
+}
+
+TEST(CouplingIdentity, SameCouplingSameKeyUnderRenumbering) {
+  auto mol = structure::molecule_from_smiles("C[C@H](Cl)CC", true);  // (S)-2-chlorobutane
+  CompoundIdentity id(mol, "test");
+  for (unsigned seed = 1; seed <= 2; ++seed) {
+    std::vector<int> where;
+    auto other = shuffled(mol, seed, where);
+    CompoundIdentity id2(other, "shuffled");
+    EXPECT_EQ(id.inchikey(), id2.inchikey());
+    for (int a = 1; a <= id.atom_count(); ++a)
+      for (int b = a + 1; b <= id.atom_count(); ++b) {
+        if (mol.GetAtom(a)->GetAtomicNum() != 1 || mol.GetAtom(b)->GetAtomicNum() != 1) continue;
+        EXPECT_EQ(id.coupling_key({a}, {b}), id2.coupling_key({where[a - 1]}, {where[b - 1]}))
+            << "atoms " << a << "," << b << " seed " << seed;
+      }
+  }
+}
+
+TEST(CouplingIdentity, DiastereotopicProtonsDiffer) {
+  // C3 of (S)-2-chlorobutane carries two diastereotopic protons: their
+  // couplings to H2 are different couplings.
+  auto mol = structure::molecule_from_smiles("C[C@H](Cl)CC", true);
+  CompoundIdentity id(mol, "test");
+  const auto h2 = hydrogens_on(mol, 2), h4 = hydrogens_on(mol, 4);
+  ASSERT_EQ(h2.size(), 1u);
+  ASSERT_EQ(h4.size(), 2u);
+  EXPECT_NE(id.coupling_key({h2[0]}, {h4[0]}), id.coupling_key({h2[0]}, {h4[1]}));
+  // As a stereo-unassigned pair the two are one coupling, in either order.
+  EXPECT_EQ(id.coupling_key({h2[0]}, {h4[0], h4[1]}), id.coupling_key({h4[1], h4[0]}, {h2[0]}));
+}
+
+TEST(CouplingIdentity, CisAndTransAcrossDoubleBondDiffer) {
+  auto mol = structure::molecule_from_smiles("C=C", true);
+  CompoundIdentity id(mol, "ethene");
+  const auto h1 = hydrogens_on(mol, 1), h2 = hydrogens_on(mol, 2);
+  ASSERT_EQ(h1.size(), 2u);
+  const std::string k0 = id.coupling_key({h1[0]}, {h2[0]}), k1 = id.coupling_key({h1[0]}, {h2[1]});
+  EXPECT_NE(k0, k1);
+  // The other cis pair is the same coupling as the first cis pair.
+  const std::string other = id.coupling_key({h1[1]}, {h2[0]});
+  EXPECT_EQ(other, k1);
+  // Geminal couplings of both carbons are one coupling.
+  EXPECT_EQ(id.coupling_key({h1[0]}, {h1[1]}), id.coupling_key({h2[1]}, {h2[0]}));
+}
+
+TEST(CouplingIdentity, EnantiotopicProtonsShareKeys) {
+  // Ethanol's CH2 protons are enantiotopic: CH2-CH3 couplings of either are
+  // the same measurement, and all three methyl protons are equivalent.
+  auto mol = structure::molecule_from_smiles("CCO", true);
+  CompoundIdentity id(mol, "ethanol");
+  const auto methyl = hydrogens_on(mol, 1), ch2 = hydrogens_on(mol, 2);
+  ASSERT_EQ(methyl.size(), 3u);
+  ASSERT_EQ(ch2.size(), 2u);
+  const std::string k = id.coupling_key({methyl[0]}, {ch2[0]});
+  for (int m : methyl)
+    for (int c : ch2) EXPECT_EQ(id.coupling_key({m}, {c}), k);
+}
+
+TEST(CouplingIdentity, RanksAreAPermutation) {
+  auto mol = structure::molecule_from_smiles("OC(=O)[C@@H](N)C", true);
+  CompoundIdentity id(mol, "alanine");
+  std::vector<unsigned> ranks;
+  for (int a = 1; a <= id.atom_count(); ++a) ranks.push_back(id.rank(a));
+  std::sort(ranks.begin(), ranks.end());
+  for (std::size_t i = 0; i < ranks.size(); ++i) EXPECT_EQ(ranks[i], i + 1);
+}
+
+}  // namespace
+}  // namespace vicinal::library

@@ -1,0 +1,168 @@
+#include "library/query.h"
+
+#include <fmt/format.h>
+#include <openbabel/mol.h>
+#include <openbabel/obconversion.h>
+#include <openbabel/parsmart.h>
+
+#include <algorithm>
+#include <cctype>
+#include <map>
+#include <functional>
+#include <set>
+
+#include "core/error.h"
+#include "core/parse.h"
+#include "library/fingerprint.h"
+#include "structure/openbabel_log.h"
+
+namespace vicinal::library {
+
+namespace {
+
+// The compounds whose structure contains the SMARTS.
+std::set<std::int64_t> substructure_matches(Database& db, const FindQuery& query, FindResult& result) {
+  structure::LogCapture quiet;
+  OpenBabel::OBSmartsPattern pattern;
+  if (!pattern.Init(query.smarts))
+    throw Error(fmt::format("Open Babel cannot read the SMARTS '{}'", query.smarts),
+                Location::field_in("", "--smarts"), "check brackets and atom symbols");
+  const auto screen = query.fingerprint_screen ? query_fingerprint(query.smarts) : std::nullopt;
+  Statement s(db,
+              "SELECT c.id, c.smiles, f.bits FROM compounds c LEFT JOIN compound_fingerprints f ON f.compound_id = c.id");
+  std::set<std::int64_t> out;
+  OpenBabel::OBConversion conv;
+  conv.SetInFormat("smi");
+  while (s.step()) {
+    if (screen && !s.is_null(2) && !may_contain(s.blob(2), *screen)) {
+      ++result.compounds_screened_out;
+      continue;
+    }
+    OpenBabel::OBMol mol;
+    if (!conv.ReadString(&mol, s.text(1))) continue;
+    if (pattern.Match(mol, true)) out.insert(s.integer(0));
+  }
+  result.compounds_matched_smarts = out.size();
+  return out;
+}
+
+}  // namespace
+
+FindResult find_couplings(Database& db, const FindQuery& q) {
+  ReadTransaction snapshot(db);
+  FindResult result;
+  std::optional<std::set<std::int64_t>> allowed;
+  if (!q.smarts.empty()) allowed = substructure_matches(db, q, result);
+
+  std::string sql =
+      "SELECT c.id, c.name, c.inchikey, s.id, s.name, s.solvent, s.temperature_k, s.field_mhz, s.ph, s.instrument, "
+      "s.method, s.measured_by, s.measured_on, s.source, k.id, k.nucleus_a, k.nucleus_b, k.atoms_a, k.atoms_b, "
+      "k.path, k.bond_count, k.isotope_a, k.isotope_b, k.j_hz, k.sigma_hz, k.sign_known, k.assignment, k.identity, "
+      "k.karplus_set, k.note, k.origin, "
+      "(SELECT count(*) FROM couplings o WHERE o.set_id = k.set_id AND o.identity = k.identity AND o.j_hz <> k.j_hz) "
+      "FROM couplings k JOIN measurement_sets s ON s.id = k.set_id JOIN compounds c ON c.id = s.compound_id WHERE 1";
+  std::vector<std::function<void(Statement&, int)>> binders;
+  auto add = [&](const std::string& clause, auto value) {
+    sql += " AND " + clause;
+    binders.push_back([value](Statement& st, int i) { st.bind(i, value); });
+  };
+  if (!q.name.empty()) add("instr(lower(c.name), lower(?)) > 0", q.name);
+  if (!q.inchikey.empty()) {
+    if (q.inchikey.size() == 14) add("substr(c.inchikey, 1, 14) = ?", q.inchikey);
+    else add("c.inchikey = ?", q.inchikey);
+  }
+  if (q.j_min_hz) add("k.j_hz >= ?", *q.j_min_hz);
+  if (q.j_max_hz) add("k.j_hz <= ?", *q.j_max_hz);
+  if (q.bonds) add("k.bond_count = ?", static_cast<std::int64_t>(*q.bonds));
+  if (!q.solvent.empty()) add("lower(s.solvent) = lower(?)", q.solvent);
+  if (!q.source.empty()) add("instr(lower(s.source), lower(?)) > 0", q.source);
+  if (!q.nuclei.empty()) {
+    const auto comma = q.nuclei.find(',');
+    if (comma == std::string::npos)
+      throw Error(fmt::format("'{}' is not a pair of nuclei", q.nuclei), Location::field_in("", "--nuclei"),
+                  "write two elements or isotopes, e.g. H,H or 1H,13C");
+    const std::string x{trim(q.nuclei.substr(0, comma))}, y{trim(q.nuclei.substr(comma + 1))};
+    // An element matches any isotope of it; an isotope ("13C") only itself.
+    auto term = [](const char* column, const std::string& v) {
+      return std::isdigit(static_cast<unsigned char>(v[0])) ? fmt::format("{} = ?", column)
+                                                            : fmt::format("ltrim({}, '0123456789') = ?", column);
+    };
+    sql += fmt::format(" AND (({} AND {}) OR ({} AND {}))", term("k.isotope_a", x), term("k.isotope_b", y),
+                       term("k.isotope_a", y), term("k.isotope_b", x));
+    for (const auto& v : {x, y, y, x}) binders.push_back([v](Statement& st, int i) { st.bind(i, v); });
+  }
+  sql += " ORDER BY c.id, s.id, k.id";
+  Statement st(db, sql);
+  for (std::size_t i = 0; i < binders.size(); ++i) binders[i](st, static_cast<int>(i) + 1);
+  while (st.step()) {
+    if (allowed && !allowed->count(st.integer(0))) continue;
+    FoundCoupling f;
+    f.compound_id = st.integer(0);
+    f.compound = st.text(1);
+    f.inchikey = st.text(2);
+    f.set_id = st.integer(3);
+    auto& k = f.conditions;
+    k.name = st.text(4);
+    k.solvent = st.text(5);
+    k.temperature_k = st.optional_real(6);
+    k.field_mhz = st.optional_real(7);
+    k.ph = st.optional_real(8);
+    k.instrument = st.text(9);
+    k.method = st.text(10);
+    k.measured_by = st.text(11);
+    k.measured_on = st.text(12);
+    k.source = st.text(13);
+    f.coupling_id = st.integer(14);
+    auto& c = f.coupling;
+    c.nucleus_a = st.text(15);
+    c.nucleus_b = st.text(16);
+    c.atoms_a = split_atoms(st.text(17), '|');
+    c.atoms_b = split_atoms(st.text(18), '|');
+    c.path = split_atoms(st.text(19), '-');
+    c.bond_count = static_cast<int>(st.integer(20));
+    c.isotope_a = st.text(21);
+    c.isotope_b = st.text(22);
+    c.j_hz = st.real(23);
+    c.sigma_hz = st.optional_real(24);
+    c.sign_known = st.integer(25) != 0;
+    c.stereo_unassigned = st.text(26) == "stereo-unassigned";
+    c.identity = st.text(27);
+    c.karplus_set = st.text(28);
+    c.note = st.text(29);
+    c.origin = st.text(30);
+    f.in_conflict = st.integer(31) > 0;
+    result.couplings.push_back(std::move(f));
+  }
+  return result;
+}
+
+std::int64_t find_compound(Database& db, const std::string& what) {
+  const std::string text{trim(what)};
+  if (!text.empty() && std::all_of(text.begin(), text.end(), [](char c) { return std::isdigit(static_cast<unsigned char>(c)); })) {
+    Statement s(db, "SELECT id FROM compounds WHERE id = ?");
+    s.bind(1, static_cast<std::int64_t>(std::stoll(text)));
+    if (s.step()) return s.integer(0);
+  }
+  {
+    Statement s(db, "SELECT id FROM compounds WHERE inchikey = ?");
+    s.bind(1, text);
+    if (s.step()) return s.integer(0);
+  }
+  Statement s(db, "SELECT id FROM compounds WHERE name = ? ORDER BY id");
+  s.bind(1, what);
+  std::vector<std::int64_t> ids;
+  while (s.step()) ids.push_back(s.integer(0));
+  if (ids.size() == 1) return ids.front();
+  if (ids.empty()) {
+    Statement like(db, "SELECT name FROM compounds WHERE instr(lower(name), lower(?)) > 0 ORDER BY id LIMIT 5");
+    like.bind(1, text);
+    std::string near;
+    while (like.step()) near += (near.empty() ? "" : ", ") + like.text(0);
+    throw Error(fmt::format("no compound '{}' in the library", what), {},
+                near.empty() ? "list compounds with 'vicinal library find'" : "did you mean: " + near);
+  }
+  throw Error(fmt::format("{} compounds are named '{}'", ids.size(), what), {},
+              "give the InChIKey or the id number shown by 'vicinal library find'");
+}
+
+}  // namespace vicinal::library

@@ -1,0 +1,42 @@
+#include "library/records.h"
+
+#include <fmt/format.h>
+
+#include "core/error.h"
+
+namespace vicinal::library {
+
+std::string conditions_key(const Conditions& c) {
+  auto number = [](const std::optional<double>& v) { return v ? fmt::format("{}", *v) : std::string("-"); };
+  return fmt::format("{}\x1f{}\x1f{}\x1f{}\x1f{}\x1f{}\x1f{}\x1f{}\x1f{}\x1f{}", c.name, c.solvent,
+                     number(c.temperature_k), number(c.field_mhz), number(c.ph), c.instrument, c.method,
+                     c.measured_by, c.measured_on, c.source);
+}
+
+std::string join_atoms(const std::vector<int>& atoms, char separator) {
+  std::string out;
+  for (int a : atoms) {
+    if (!out.empty()) out += separator;
+    out += std::to_string(a);
+  }
+  return out;
+}
+
+std::vector<int> split_atoms(const std::string& text, char separator) {
+  std::vector<int> out;
+  std::size_t start = 0;
+  while (start <= text.size() && !text.empty()) {
+    const auto end = text.find(separator, start);
+    const std::string part = text.substr(start, end == std::string::npos ? std::string::npos : end - start);
+    try {
+      out.push_back(std::stoi(part));
+    } catch (const std::exception&) {
+      throw Error(fmt::format("stored atom list '{}' is damaged", text), {}, "run 'vicinal library check'");
+    }
+    if (end == std::string::npos) break;
+    start = end + 1;
+  }
+  return out;
+}
+
+}  // namespace vicinal::library

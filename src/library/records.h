@@ -1,0 +1,78 @@
+// The library's content in memory: what importers produce, exporters write,
+// and the store reads and writes. Atom indices are 1-based, in the numbering
+// of the compound's own molfile.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace vicinal::library {
+
+struct AtomRecord {
+  int index = 0;
+  std::string element;
+  unsigned canonical_rank = 0;
+};
+
+struct CompoundRecord {
+  std::string name;
+  std::string smiles;    // canonical isomeric SMILES
+  std::string inchi;
+  std::string inchikey;
+  std::string molfile;   // the structure with the numbering the couplings use
+  std::vector<std::pair<std::string, int>> labels;  // label -> atom, sorted by label
+  std::vector<AtomRecord> atoms;
+  std::vector<std::string> notes;
+};
+
+// Conditions and provenance of one measurement set; two sets of a compound are
+// the same set when all of these agree.
+struct Conditions {
+  std::string name;  // the group's name for the set ("batch 3, CDCl3")
+  std::string solvent;
+  std::optional<double> temperature_k, field_mhz, ph;
+  std::string instrument, method, measured_by, measured_on, source;
+  bool operator==(const Conditions&) const = default;
+};
+
+struct CouplingRecord {
+  std::string nucleus_a, nucleus_b;       // as written: labels, alternatives '|'-joined
+  std::vector<int> atoms_a, atoms_b;      // resolved atoms
+  std::vector<int> path;                  // bonded path between atoms_a[0] and atoms_b[0]
+  int bond_count = 0;
+  std::string isotope_a, isotope_b;
+  double j_hz = 0;
+  std::optional<double> sigma_hz;
+  bool sign_known = false;
+  bool stereo_unassigned = false;         // a side lists alternatives
+  std::string ranks_a, ranks_b;           // canonical ranks, '|'-joined
+  std::string identity;                   // numbering-independent key within the compound
+  std::string karplus_set;                // preferred Karplus set for this coupling, if any
+  std::string note;
+  std::string origin;                     // file or library the value came from
+  long line = 0;                          // input line, for messages (not stored)
+};
+
+struct SetRecord {
+  Conditions conditions;
+  std::string imported_from;
+  std::vector<std::string> notes;
+  std::vector<CouplingRecord> couplings;
+};
+
+// One compound with its measurement sets.
+struct Entry {
+  CompoundRecord compound;
+  std::vector<SetRecord> sets;
+};
+
+// One string that is equal for equal conditions (for map lookups).
+std::string conditions_key(const Conditions& c);
+
+// Text forms shared by the formats: "12|13" <-> {12, 13}, "1-2-3-4" <-> path.
+std::string join_atoms(const std::vector<int>& atoms, char separator);
+std::vector<int> split_atoms(const std::string& text, char separator);
+
+}  // namespace vicinal::library

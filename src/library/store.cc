@@ -1,0 +1,394 @@
+#include "library/store.h"
+
+#include <fmt/format.h>
+
+#include <filesystem>
+#include <map>
+
+#include "core/error.h"
+#include "library/fingerprint.h"
+#include "structure/atom_labels.h"
+
+namespace vicinal::library {
+
+namespace {
+
+// Re-expresses a nucleus text ("H-2|H-3") for the stored compound: a reference
+// is kept when the stored labels give it the same atom, else it becomes
+// element + stored index ("H7").
+std::string restate_nucleus(const std::string& text, const std::vector<int>& atoms,
+                            const std::map<std::string, int>& stored_labels,
+                            const std::map<int, std::string>& stored_elements) {
+  std::vector<std::string> refs;
+  std::size_t start = 0;
+  for (;;) {
+    const auto bar = text.find('|', start);
+    refs.push_back(text.substr(start, bar == std::string::npos ? std::string::npos : bar - start));
+    if (bar == std::string::npos) break;
+    start = bar + 1;
+  }
+  std::string out;
+  for (std::size_t i = 0; i < atoms.size(); ++i) {
+    const auto it = i < refs.size() ? stored_labels.find(refs[i]) : stored_labels.end();
+    const std::string ref = it != stored_labels.end() && it->second == atoms[i]
+                                ? refs[i]
+                                : fmt::format("{}{}", stored_elements.at(atoms[i]), atoms[i]);
+    out += (out.empty() ? "" : "|") + ref;
+  }
+  return out;
+}
+
+struct StoredCoupling {
+  double j_hz;
+  std::optional<double> sigma_hz;
+  bool sign_known;
+  std::string origin;
+};
+
+}  // namespace
+
+Library::Library(std::unique_ptr<Database> db, std::string path) : db_(std::move(db)), path_(std::move(path)) {
+  upgrade_ = upgrade_schema(*db_);
+  if (upgrade_.from_version != upgrade_.to_version) fill_fingerprints();
+}
+
+Library::Library(const std::string& path) : path_(path) {
+  if (!std::filesystem::exists(path))
+    throw Error("the library does not exist", {path}, "create it with 'vicinal library init' or check --library");
+  db_ = std::make_unique<Database>(path, Database::Mode::ReadWrite);
+  upgrade_ = upgrade_schema(*db_);
+  if (upgrade_.from_version != upgrade_.to_version) fill_fingerprints();
+}
+
+std::unique_ptr<Library> Library::create(const std::string& path) {
+  const auto folder = std::filesystem::path(path).parent_path();
+  if (!folder.empty() && !std::filesystem::exists(folder)) std::filesystem::create_directories(folder);
+  return std::unique_ptr<Library>(
+      new Library(std::make_unique<Database>(path, Database::Mode::ReadWriteCreate), path));
+}
+
+int Library::fill_fingerprints() {
+  WriteTransaction tx(*db_);
+  Statement missing(*db_,
+                    "SELECT c.id, c.smiles FROM compounds c LEFT JOIN compound_fingerprints f ON f.compound_id = c.id "
+                    "WHERE f.compound_id IS NULL");
+  Statement insert(*db_, "INSERT INTO compound_fingerprints (compound_id, kind, bits) VALUES (?, ?, ?)");
+  std::vector<std::pair<std::int64_t, std::string>> todo;
+  while (missing.step()) todo.emplace_back(missing.integer(0), missing.text(1));
+  for (const auto& [id, smiles] : todo) {
+    insert.bind(1, id).bind(2, kFingerprintKind).bind_blob(3, compound_fingerprint(smiles));
+    insert.run();
+  }
+  tx.commit();
+  return static_cast<int>(todo.size());
+}
+
+StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress) {
+  StoreReport report;
+  WriteTransaction tx(*db_);
+  Database& db = *db_;
+  Statement find_compound(db, "SELECT id, name FROM compounds WHERE inchikey = ?");
+  Statement insert_compound(db, "INSERT INTO compounds (name, smiles, inchi, inchikey, molfile) VALUES (?, ?, ?, ?, ?)");
+  Statement touch_compound(db, "UPDATE compounds SET updated_utc = strftime('%Y-%m-%dT%H:%M:%SZ', 'now') WHERE id = ?");
+  Statement insert_atom(db, "INSERT INTO atoms (compound_id, atom_index, element, canonical_rank) VALUES (?, ?, ?, ?)");
+  Statement insert_label(db, "INSERT INTO atom_labels (compound_id, label, atom_index) VALUES (?, ?, ?)");
+  Statement read_atoms(db, "SELECT atom_index, element, canonical_rank FROM atoms WHERE compound_id = ?");
+  Statement read_labels(db, "SELECT label, atom_index FROM atom_labels WHERE compound_id = ?");
+  Statement read_sets(db,
+                      "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
+                      "measured_on, source FROM measurement_sets WHERE compound_id = ?");
+  Statement insert_set(db,
+                       "INSERT INTO measurement_sets (compound_id, name, solvent, temperature_k, field_mhz, ph, "
+                       "instrument, method, measured_by, measured_on, source, imported_from) "
+                       "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)");
+  Statement read_couplings(db, "SELECT identity, j_hz, sigma_hz, sign_known, origin FROM couplings WHERE set_id = ?");
+  Statement insert_coupling(
+      db,
+      "INSERT INTO couplings (set_id, nucleus_a, nucleus_b, atoms_a, atoms_b, path, bond_count, isotope_a, "
+      "isotope_b, j_hz, sigma_hz, sign_known, assignment, ranks_a, ranks_b, identity, karplus_set, note, origin) "
+      "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)");
+  Statement find_note(db, "SELECT 1 FROM notes WHERE compound_id IS ? AND set_id IS ? AND text = ?");
+  Statement insert_note(db, "INSERT INTO notes (compound_id, set_id, text) VALUES (?, ?, ?)");
+  Statement insert_fingerprint(db, "INSERT INTO compound_fingerprints (compound_id, kind, bits) VALUES (?, ?, ?)");
+
+  auto add_note = [&](std::optional<std::int64_t> compound, std::optional<std::int64_t> set, const std::string& text) {
+    find_note.bind(1, compound).bind(2, set).bind(3, text);
+    const bool present = find_note.step();
+    find_note.reset();
+    if (present) return;
+    insert_note.bind(1, compound).bind(2, set).bind(3, text);
+    insert_note.run();
+  };
+
+  std::size_t total = 0;
+  for (const auto& e : entries)
+    for (const auto& s : e.sets) total += s.couplings.size();
+  progress.start("storing couplings", total);
+  std::size_t done = 0;
+
+  for (const auto& entry : entries) {
+    const CompoundRecord& c = entry.compound;
+    std::int64_t compound_id = 0;
+    std::string stored_name = c.name;
+    // Incoming atom index -> stored atom index (identity unless the compound
+    // was stored before from a file with another numbering).
+    std::vector<int> to_stored(c.atoms.size() + 1);
+    for (std::size_t i = 0; i <= c.atoms.size(); ++i) to_stored[i] = static_cast<int>(i);
+    std::map<std::string, int> stored_labels;
+    std::map<int, std::string> stored_elements;
+    bool known = false;
+
+    find_compound.bind(1, c.inchikey);
+    if (find_compound.step()) {
+      known = true;
+      compound_id = find_compound.integer(0);
+      stored_name = find_compound.text(1);
+    }
+    find_compound.reset();
+
+    if (!known) {
+      insert_compound.bind(1, c.name).bind(2, c.smiles).bind(3, c.inchi).bind(4, c.inchikey).bind(5, c.molfile);
+      insert_compound.run();
+      compound_id = db.last_insert_id();
+      for (const auto& a : c.atoms) {
+        insert_atom.bind(1, compound_id).bind(2, a.index).bind(3, a.element).bind(4, static_cast<std::int64_t>(a.canonical_rank));
+        insert_atom.run();
+        stored_elements[a.index] = a.element;
+      }
+      for (const auto& [label, atom] : c.labels) {
+        insert_label.bind(1, compound_id).bind(2, label).bind(3, atom);
+        insert_label.run();
+        stored_labels[label] = atom;
+      }
+      insert_fingerprint.bind(1, compound_id).bind(2, kFingerprintKind).bind_blob(3, compound_fingerprint(c.smiles));
+      insert_fingerprint.run();
+      ++report.compounds_added;
+    } else {
+      ++report.compounds_known;
+      std::map<unsigned, int> by_rank;
+      read_atoms.bind(1, compound_id);
+      while (read_atoms.step()) {
+        const int index = static_cast<int>(read_atoms.integer(0));
+        stored_elements[index] = read_atoms.text(1);
+        by_rank[static_cast<unsigned>(read_atoms.integer(2))] = index;
+      }
+      read_atoms.reset();
+      read_labels.bind(1, compound_id);
+      while (read_labels.step()) stored_labels[read_labels.text(0)] = static_cast<int>(read_labels.integer(1));
+      read_labels.reset();
+      for (const auto& a : c.atoms) {
+        auto it = by_rank.find(a.canonical_rank);
+        if (it == by_rank.end() || stored_elements[it->second] != a.element || by_rank.size() != c.atoms.size())
+          throw Error(fmt::format("compound '{}' has the InChIKey {} of the stored compound '{}', but its atoms "
+                                  "do not correspond (a tautomer or a different hydrogen count?)",
+                                  c.name, c.inchikey, stored_name),
+                      {}, "store it under the structure already in the library");
+        to_stored[a.index] = it->second;
+      }
+      touch_compound.bind(1, compound_id);
+      touch_compound.run();
+    }
+    for (const auto& note : c.notes) add_note(compound_id, std::nullopt, note);
+
+    // Sets of this compound already stored, with their couplings by identity.
+    std::map<std::string, std::int64_t> stored_sets;
+    read_sets.bind(1, compound_id);
+    while (read_sets.step()) {
+      Conditions k;
+      k.name = read_sets.text(1);
+      k.solvent = read_sets.text(2);
+      k.temperature_k = read_sets.optional_real(3);
+      k.field_mhz = read_sets.optional_real(4);
+      k.ph = read_sets.optional_real(5);
+      k.instrument = read_sets.text(6);
+      k.method = read_sets.text(7);
+      k.measured_by = read_sets.text(8);
+      k.measured_on = read_sets.text(9);
+      k.source = read_sets.text(10);
+      stored_sets.emplace(conditions_key(k), read_sets.integer(0));
+    }
+    read_sets.reset();
+
+    for (const auto& set : entry.sets) {
+      std::int64_t set_id = 0;
+      std::multimap<std::string, StoredCoupling> present;
+      const std::string set_key = conditions_key(set.conditions);
+      if (auto it = stored_sets.find(set_key); it != stored_sets.end()) set_id = it->second;
+      if (set_id != 0) {
+        ++report.sets_known;
+        read_couplings.bind(1, set_id);
+        while (read_couplings.step())
+          present.emplace(read_couplings.text(0),
+                          StoredCoupling{read_couplings.real(1), read_couplings.optional_real(2),
+                                         read_couplings.integer(3) != 0, read_couplings.text(4)});
+        read_couplings.reset();
+      } else {
+        const Conditions& k = set.conditions;
+        insert_set.bind(1, compound_id).bind(2, k.name).bind(3, k.solvent).bind(4, k.temperature_k);
+        insert_set.bind(5, k.field_mhz).bind(6, k.ph).bind(7, k.instrument).bind(8, k.method);
+        insert_set.bind(9, k.measured_by).bind(10, k.measured_on).bind(11, k.source).bind(12, set.imported_from);
+        insert_set.run();
+        set_id = db.last_insert_id();
+        stored_sets.emplace(set_key, set_id);
+        ++report.sets_added;
+      }
+      for (const auto& note : set.notes) add_note(std::nullopt, set_id, note);
+
+      for (const auto& in : set.couplings) {
+        progress.advance(++done);
+        const auto [first, last] = present.equal_range(in.identity);
+        bool duplicate = false;
+        for (auto it = first; it != last; ++it)
+          duplicate |= it->second.j_hz == in.j_hz && it->second.sigma_hz == in.sigma_hz &&
+                       it->second.sign_known == in.sign_known;
+        if (duplicate) {
+          ++report.couplings_duplicate;
+          continue;
+        }
+        if (first != last)
+          report.conflicts.push_back({stored_name, c.inchikey, set.conditions.name,
+                                      in.nucleus_a + "," + in.nucleus_b, first->second.j_hz, first->second.sigma_hz,
+                                      first->second.origin, in.j_hz, in.sigma_hz, in.origin});
+        auto map_atoms = [&](const std::vector<int>& atoms) {
+          std::vector<int> out;
+          for (int a : atoms) out.push_back(to_stored.at(static_cast<std::size_t>(a)));
+          return out;
+        };
+        const auto atoms_a = map_atoms(in.atoms_a), atoms_b = map_atoms(in.atoms_b);
+        insert_coupling.bind(1, set_id)
+            .bind(2, known ? restate_nucleus(in.nucleus_a, atoms_a, stored_labels, stored_elements) : in.nucleus_a)
+            .bind(3, known ? restate_nucleus(in.nucleus_b, atoms_b, stored_labels, stored_elements) : in.nucleus_b)
+            .bind(4, join_atoms(atoms_a, '|'))
+            .bind(5, join_atoms(atoms_b, '|'))
+            .bind(6, join_atoms(map_atoms(in.path), '-'))
+            .bind(7, in.bond_count)
+            .bind(8, in.isotope_a)
+            .bind(9, in.isotope_b)
+            .bind(10, in.j_hz)
+            .bind(11, in.sigma_hz)
+            .bind(12, in.sign_known ? 1 : 0)
+            .bind(13, in.stereo_unassigned ? "stereo-unassigned" : "assigned")
+            .bind(14, in.ranks_a)
+            .bind(15, in.ranks_b)
+            .bind(16, in.identity)
+            .bind(17, in.karplus_set)
+            .bind(18, in.note)
+            .bind(19, in.origin);
+        insert_coupling.run();
+        present.emplace(in.identity, StoredCoupling{in.j_hz, in.sigma_hz, in.sign_known, in.origin});
+        ++report.couplings_added;
+      }
+    }
+  }
+  tx.commit();
+  progress.finish();
+  return report;
+}
+
+std::vector<Entry> read_other_library(const std::string& path) {
+  if (!std::filesystem::exists(path)) throw Error("the library to merge does not exist", {path});
+  Database other(path, Database::Mode::ReadOnly);
+  const int version = other.user_version();
+  if (version < 1) throw Error("the file is not a vicinal library", {path});
+  if (version > current_schema_version())
+    throw Error(fmt::format("the library is at schema version {}, newer than this vicinal understands ({})", version,
+                            current_schema_version()),
+                {path}, "use a newer vicinal");
+  return read_entries(other);
+}
+
+std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& wanted) {
+  ReadTransaction snapshot(db);
+  std::vector<std::int64_t> ids = wanted;
+  if (ids.empty()) {
+    Statement all(db, "SELECT id FROM compounds ORDER BY id");
+    while (all.step()) ids.push_back(all.integer(0));
+  }
+  Statement compound(db, "SELECT name, smiles, inchi, inchikey, molfile FROM compounds WHERE id = ?");
+  Statement atoms(db, "SELECT atom_index, element, canonical_rank FROM atoms WHERE compound_id = ? ORDER BY atom_index");
+  Statement labels(db, "SELECT label, atom_index FROM atom_labels WHERE compound_id = ? ORDER BY label");
+  Statement notes(db, "SELECT text FROM notes WHERE compound_id = ? ORDER BY id");
+  Statement set_notes(db, "SELECT text FROM notes WHERE set_id = ? ORDER BY id");
+  Statement sets(db,
+                 "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
+                 "measured_on, source, imported_from FROM measurement_sets WHERE compound_id = ? ORDER BY id");
+  Statement couplings(db,
+                      "SELECT nucleus_a, nucleus_b, atoms_a, atoms_b, path, bond_count, isotope_a, isotope_b, j_hz, "
+                      "sigma_hz, sign_known, assignment, ranks_a, ranks_b, identity, karplus_set, note, origin "
+                      "FROM couplings WHERE set_id = ? ORDER BY id");
+  std::vector<Entry> out;
+  for (const auto id : ids) {
+    compound.bind(1, id);
+    if (!compound.step()) {
+      compound.reset();
+      continue;
+    }
+    Entry e;
+    auto& c = e.compound;
+    c.name = compound.text(0);
+    c.smiles = compound.text(1);
+    c.inchi = compound.text(2);
+    c.inchikey = compound.text(3);
+    c.molfile = compound.text(4);
+    compound.reset();
+    atoms.bind(1, id);
+    while (atoms.step())
+      c.atoms.push_back({static_cast<int>(atoms.integer(0)), atoms.text(1), static_cast<unsigned>(atoms.integer(2))});
+    atoms.reset();
+    labels.bind(1, id);
+    while (labels.step()) c.labels.emplace_back(labels.text(0), static_cast<int>(labels.integer(1)));
+    labels.reset();
+    notes.bind(1, id);
+    while (notes.step()) c.notes.push_back(notes.text(0));
+    notes.reset();
+    sets.bind(1, id);
+    while (sets.step()) {
+      SetRecord s;
+      const std::int64_t set_id = sets.integer(0);
+      s.conditions.name = sets.text(1);
+      s.conditions.solvent = sets.text(2);
+      s.conditions.temperature_k = sets.optional_real(3);
+      s.conditions.field_mhz = sets.optional_real(4);
+      s.conditions.ph = sets.optional_real(5);
+      s.conditions.instrument = sets.text(6);
+      s.conditions.method = sets.text(7);
+      s.conditions.measured_by = sets.text(8);
+      s.conditions.measured_on = sets.text(9);
+      s.conditions.source = sets.text(10);
+      s.imported_from = sets.text(11);
+      set_notes.bind(1, set_id);
+      while (set_notes.step()) s.notes.push_back(set_notes.text(0));
+      set_notes.reset();
+      couplings.bind(1, set_id);
+      while (couplings.step()) {
+        CouplingRecord k;
+        k.nucleus_a = couplings.text(0);
+        k.nucleus_b = couplings.text(1);
+        k.atoms_a = split_atoms(couplings.text(2), '|');
+        k.atoms_b = split_atoms(couplings.text(3), '|');
+        k.path = split_atoms(couplings.text(4), '-');
+        k.bond_count = static_cast<int>(couplings.integer(5));
+        k.isotope_a = couplings.text(6);
+        k.isotope_b = couplings.text(7);
+        k.j_hz = couplings.real(8);
+        k.sigma_hz = couplings.optional_real(9);
+        k.sign_known = couplings.integer(10) != 0;
+        k.stereo_unassigned = couplings.text(11) == "stereo-unassigned";
+        k.ranks_a = couplings.text(12);
+        k.ranks_b = couplings.text(13);
+        k.identity = couplings.text(14);
+        k.karplus_set = couplings.text(15);
+        k.note = couplings.text(16);
+        k.origin = couplings.text(17);
+        s.couplings.push_back(std::move(k));
+      }
+      couplings.reset();
+      e.sets.push_back(std::move(s));
+    }
+    sets.reset();
+    out.push_back(std::move(e));
+  }
+  return out;
+}
+
+}  // namespace vicinal::library

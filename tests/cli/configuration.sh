@@ -1,0 +1,32 @@
+#!/usr/bin/env bash
+# vicinal configuration: the six staggered arrangements, ambiguity, bad input.
+source "$(dirname "$0")/lib.sh"
+EX="$VICINAL_DATA_DIR/examples/acyclic"
+
+# Invented example: couplings of the threo rotamer with H2 anti C4.
+run 0 configuration --couplings "$EX/methyl-carbinol.csv"
+contains out "threo"; contains out "Candidates"; contains out "Matsumori"
+run 0 --json configuration --couplings "$EX/methyl-carbinol.csv"
+[[ $(json_get 'd["verdict"]') == clear ]] || fail "example verdict: $(json_get 'd["statement"]')"
+[[ $(json_get 'd["candidates"][0]["name"]') == "threo, H2 anti C4" ]] || fail "example best: $(json_get 'd["candidates"][0]["name"]')"
+
+# Only 3J(H2,H3) large: both configurations have an anti H/H rotamer (Matsumori
+# et al., J. Org. Chem. 64, 866, 1999, from memory): reported as ambiguous.
+printf "coupling,j_hz,sigma_hz\nH2-H3,9.6,0.3\n" >hh.csv
+run 0 configuration --couplings hh.csv
+contains out "Ambiguous"
+run 0 --json configuration --couplings hh.csv
+[[ $(json_get 'd["verdict"]') == ambiguous ]] || fail "one large 3J(H,H) should be ambiguous"
+
+# Oxygen on C3: 2J(C3,H2) becomes available.
+printf "coupling,j_hz,sigma_hz\nH2-H3,2.1,0.3\nC3-H2,-5.5,0.5\nC2-H3,-0.5,0.5\nH2-C4,2,0.5\nH3-C1,2,0.5\n" >diol.csv
+run 0 --json configuration --couplings diol.csv --x3 oxygen
+json_get 'len(d["arrangements"])' | grep -qx 6 || fail "six arrangements expected"
+
+# Bad input.
+run 2 configuration --couplings diol.csv; one_line_error; contains err "diol.csv:3"; contains err "C3-H2"
+printf "coupling,j_hz,sigma_hz\nH2-H3,x,0.3\n" >bad.csv
+run 2 configuration --couplings bad.csv; one_line_error; contains err "bad.csv:2"
+run 2 configuration --couplings hh.csv --x3 nitrogen; one_line_error
+run 2 configuration --couplings nothing.csv; one_line_error
+echo "configuration: ok"
