@@ -68,6 +68,9 @@ void generate(GenerateOptions o, const Globals& g) {
     g.print_json({{"out", o.out},
                   {"method", report.method},
                   {"rotors", report.rotors},
+                  {"flexible_rings", report.flexible_rings},
+                  {"ring_starts", report.ring_starts},
+                  {"ring_shapes", report.ring_shapes},
                   {"searched", report.searched},
                   {"duplicates", report.duplicates},
                   {"above_window", report.above_window},
@@ -84,7 +87,12 @@ void generate(GenerateOptions o, const Globals& g) {
                       "at {:g} K\n",
                       e.frame_count(), o.out, report.method, report.searched, report.duplicates,
                       o.search.rmsd_angstrom, o.search.torsion_deg, report.above_window, o.search.energy_window_kcal_mol,
-                      o.search.temperature_k));
+                      o.search.temperature_k) +
+          (report.flexible_rings == 0
+               ? std::string()
+               : fmt::format("ring conformations: {} distinct among the conformers kept ({} ring starting structure{} "
+                             "searched)\n",
+                             report.ring_shapes, report.ring_starts, report.ring_starts == 1 ? "" : "s")));
 }
 
 void info(const std::string& path, double temperature_k, const Globals& g) {
@@ -124,16 +132,18 @@ void setup(CLI::App& root, Globals& g) {
       ->capture_default_str()
       ->check(CLI::NonNegativeNumber);
   gen->add_option("--torsion-deg", o->search.torsion_deg,
-                  "...and every chain torsion agrees within this many degrees (keeps mirror-image gauche forms apart)")
+                  "...and every chain and ring torsion agrees within this many degrees (keeps mirror-image gauche forms apart)")
       ->capture_default_str()
       ->check(CLI::PositiveNumber);
   gen->add_option("--window", o->search.energy_window_kcal_mol, "Drop conformers this far above the lowest (kcal/mol)")
       ->capture_default_str()
       ->check(CLI::PositiveNumber);
   gen->footer("Example: vicinal conformers generate --smiles 'OC[C@@H](O)[C@H](O)C' --out diol.sdf\n"
-              "3D build, MMFF94 minimisation, a rotor search (systematic for up to 5 rotatable bonds,\n"
-              "weighted random beyond), full minimisation of every candidate, duplicates removed by\n"
-              "heavy-atom RMSD together with chain torsions. Ring conformations are not searched: give ring conformers as input.");
+              "3D build, MMFF94 minimisation, ring flips (the torsions of each non-aromatic 4- to 8-membered\n"
+              "ring inverted, for up to 3 rings), a rotor search from every ring shape (systematic for up to\n"
+              "5 rotatable bonds, weighted random beyond), full minimisation of every candidate, duplicates\n"
+              "removed by heavy-atom RMSD together with chain and ring torsions. Boats and twist forms are\n"
+              "not searched on purpose: give them as input if they matter.");
   gen->callback([o, &g] { generate(*o, g); });
 
   auto path = std::make_shared<std::string>();

@@ -15,6 +15,9 @@ namespace vicinal::fit {
 namespace {
 
 constexpr double kGasConstantKcalPerMolK = 8.314462618e-3 / 4.184;  // CODATA 2018 R in kcal/(mol K)
+// Free-fit misfits closer than this (one chi-square unit, a likelihood ratio
+// of e^0.5) do not single out a candidate.
+constexpr double kFreeMisfitMargin = 1.0;
 
 // rho(s) = (nu + 1) ln(1 + s / nu) on the squared residual s; Ceres halves it
 // like every cost, so 2 x cost = misfit.
@@ -224,22 +227,31 @@ Ranking rank_candidates(const std::vector<Candidate>& candidates, const RankOpti
   const double p = best.probability;
   ranking.confidence = p >= 0.95 ? "strong" : p >= 0.75 ? "moderate" : "weak";
   const double d_misfit = second.misfit - best.misfit, d_prior = second.prior_penalty - best.prior_penalty;
-  std::string by_free;
-  for (const auto& c : list)
-    if (by_free.empty() || c.free_misfit < std::find_if(list.begin(), list.end(), [&](const auto& x) {
-                                              return x.name == by_free;
-                                            })->free_misfit)
-      by_free = c.name;
-  ranking.energies_decided = ranking.energies_used && (d_prior > d_misfit || by_free != best.name);
+  // The candidate that fits the couplings best with free populations is named
+  // only when it is not the winner and fits clearly better than the winner
+  // (by more than kFreeMisfitMargin); when several fit freely (misfit ~0)
+  // there is no free-population winner to speak of.
+  const auto free_best = std::min_element(list.begin(), list.end(), [](const auto& a, const auto& b) {
+    return a.free_misfit < b.free_misfit;
+  });
+  const std::string by_free =
+      free_best->name != best.name && best.free_misfit - free_best->free_misfit > kFreeMisfitMargin ? free_best->name
+                                                                                                      : "";
+  ranking.energies_decided = ranking.energies_used && (d_prior > d_misfit || !by_free.empty());
 
   ranking.verdict = fmt::format("{} fits best (probability {:.2f} among the candidates given, equal prior odds; {} "
                                 "evidence, score {:.3g} vs {:.3g} for {}).",
                                 best.name, p, ranking.confidence, best.score, second.score, second.name);
-  if (ranking.energies_used && ranking.energies_decided)
+  if (ranking.energies_used && ranking.energies_decided && !by_free.empty())
     ranking.verdict += fmt::format(" The conformer energies rather than the couplings decided: with free populations "
                                    "{} fits the couplings best, and the energy prior separates the top two by {:.3g} "
                                    "against {:.3g} from the couplings.",
                                    by_free, d_prior, d_misfit);
+  else if (ranking.energies_used && ranking.energies_decided)
+    ranking.verdict += fmt::format(" The conformer energies rather than the couplings decided: with free populations "
+                                   "no candidate fits the couplings clearly better than {}, and the energy prior "
+                                   "separates the top two by {:.3g} against {:.3g} from the couplings.",
+                                   best.name, d_prior, d_misfit);
   else if (ranking.energies_used)
     ranking.verdict += " The couplings, not the energies, separate the top two.";
   else

@@ -65,6 +65,24 @@ TEST(Ranking, EnergiesOverruleAHighEnergyConformer) {
   EXPECT_GT(r.candidates[1].prior_penalty, 1.0);
 }
 
+TEST(Ranking, NoFreeWinnerIsNamedWhenBothFitFreely) {
+  // Both candidates reproduce the couplings exactly at 50:50 populations (free
+  // misfit ~0 for both); only the energies separate them (B needs its
+  // conformer 2, 3 kcal/mol up, at half the population). The verdict must not
+  // name a "free-population winner": there is none.
+  Eigen::MatrixXd a(2, 2), b(2, 2);
+  const Eigen::Vector2d obs(5.0, 5.0);
+  a << 8.0, 2.0, 2.0, 8.0;
+  b << 9.0, 1.0, 1.0, 9.0;
+  const auto r = rank_candidates({{"A", problem(a, obs), {0.0, 0.3}}, {"B", problem(b, obs), {0.0, 3.0}}});
+  ASSERT_EQ(r.candidates[0].name, "A");
+  EXPECT_LT(r.candidates[0].free_misfit, 1e-3);
+  EXPECT_LT(r.candidates[1].free_misfit, 1e-3);
+  EXPECT_TRUE(r.energies_decided);
+  EXPECT_EQ(r.verdict.find("fits the couplings best"), std::string::npos) << r.verdict;
+  EXPECT_NE(r.verdict.find("energies rather than the couplings"), std::string::npos) << r.verdict;
+}
+
 TEST(Ranking, NeedsTwoCandidates) {
   Eigen::MatrixXd a = Eigen::MatrixXd::Constant(2, 1, 5.0);
   EXPECT_THROW(rank_candidates({{"A", problem(a, Eigen::Vector2d(5, 5)), {}}}), Error);

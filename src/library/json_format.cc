@@ -297,9 +297,12 @@ std::string exchange_format(const std::string& path) {
 
 ImportResult read_exchange_file(const std::string& path, const ImportOptions& options) {
   const std::string format = exchange_format(path);
-  if (format == "csv") return read_csv(path, options);
-  if (format == "json") return read_json(path, options);
-  return read_sdf(path, options);
+  ImportResult result = format == "csv"    ? read_csv(path, options)
+                        : format == "json" ? read_json(path, options)
+                                           : read_sdf(path, options);
+  for (auto& entry : result.entries)
+    for (auto& set : entry.sets) number_unassigned_groups(set);
+  return result;
 }
 
 void write_exchange_file(const std::vector<Entry>& entries, const std::string& path) {

@@ -13,6 +13,7 @@
 
 #include "core/error.h"
 #include "core/parse.h"
+#include "library/coupling_row.h"
 #include "library/fingerprint.h"
 #include "structure/openbabel_log.h"
 
@@ -56,10 +57,9 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
 
   std::string sql =
       "SELECT c.id, c.name, c.inchikey, s.id, s.name, s.solvent, s.temperature_k, s.field_mhz, s.ph, s.instrument, "
-      "s.method, s.measured_by, s.measured_on, s.source, k.id, k.nucleus_a, k.nucleus_b, k.atoms_a, k.atoms_b, "
-      "k.path, k.bond_count, k.isotope_a, k.isotope_b, k.j_hz, k.sigma_hz, k.sign_known, k.assignment, k.identity, "
-      "k.karplus_set, k.note, k.origin, "
-      "(SELECT count(*) FROM couplings o WHERE o.set_id = k.set_id AND o.identity = k.identity AND o.j_hz <> k.j_hz) "
+      "s.method, s.measured_by, s.measured_on, s.source, k.id, " +
+      coupling_columns("k") +
+      ", (SELECT count(*) FROM couplings o WHERE o.set_id = k.set_id AND o.identity = k.identity AND o.j_hz <> k.j_hz) "
       "FROM couplings k JOIN measurement_sets s ON s.id = k.set_id JOIN compounds c ON c.id = s.compound_id WHERE 1";
   std::vector<std::function<void(Statement&, int)>> binders;
   auto add = [&](const std::string& clause, auto value) {
@@ -113,24 +113,8 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
     k.measured_on = st.text(12);
     k.source = st.text(13);
     f.coupling_id = st.integer(14);
-    auto& c = f.coupling;
-    c.nucleus_a = st.text(15);
-    c.nucleus_b = st.text(16);
-    c.atoms_a = split_atoms(st.text(17), '|');
-    c.atoms_b = split_atoms(st.text(18), '|');
-    c.path = split_atoms(st.text(19), '-');
-    c.bond_count = static_cast<int>(st.integer(20));
-    c.isotope_a = st.text(21);
-    c.isotope_b = st.text(22);
-    c.j_hz = st.real(23);
-    c.sigma_hz = st.optional_real(24);
-    c.sign_known = st.integer(25) != 0;
-    c.stereo_unassigned = st.text(26) == "stereo-unassigned";
-    c.identity = st.text(27);
-    c.karplus_set = st.text(28);
-    c.note = st.text(29);
-    c.origin = st.text(30);
-    f.in_conflict = st.integer(31) > 0;
+    f.coupling = read_coupling(st, 15);
+    f.in_conflict = st.integer(15 + kCouplingColumnCount) > 0;
     result.couplings.push_back(std::move(f));
   }
   return result;

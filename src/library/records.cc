@@ -2,6 +2,9 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <map>
+
 #include "core/error.h"
 
 namespace vicinal::library {
@@ -37,6 +40,17 @@ std::vector<int> split_atoms(const std::string& text, char separator) {
     start = end + 1;
   }
   return out;
+}
+
+void number_unassigned_groups(SetRecord& set) {
+  std::map<std::string, std::vector<CouplingRecord*>> groups;
+  for (auto& c : set.couplings)
+    if (c.stereo_unassigned) groups[c.identity].push_back(&c);
+  for (auto& [key, members] : groups) {
+    std::stable_sort(members.begin(), members.end(),
+                     [](const CouplingRecord* a, const CouplingRecord* b) { return a->j_hz > b->j_hz; });
+    for (std::size_t i = 0; i < members.size(); ++i) members[i]->identity = key + "#" + std::to_string(i + 1);
+  }
 }
 
 }  // namespace vicinal::library

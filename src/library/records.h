@@ -68,6 +68,14 @@ struct Entry {
   std::vector<SetRecord> sets;
 };
 
+// Rows of one measurement set that share the same stereo-unassigned
+// alternatives ("H-3,H-4a|H-4b" = 10.9 and "H-3,H-4b|H-4a" = 4.6) are one
+// group: the couplings to H-4a and H-4b in an unknown order. They share one
+// atom-set key, so each row's identity gets its place in the group by
+// decreasing J ("#1" the larger); the group then matches the same group
+// imported again, and is not mistaken for two values of one coupling.
+void number_unassigned_groups(SetRecord& set);
+
 // One string that is equal for equal conditions (for map lookups).
 std::string conditions_key(const Conditions& c);
 

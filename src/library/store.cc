@@ -6,6 +6,7 @@
 #include <map>
 
 #include "core/error.h"
+#include "library/coupling_row.h"
 #include "library/fingerprint.h"
 #include "structure/atom_labels.h"
 
@@ -312,10 +313,7 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
   Statement sets(db,
                  "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
                  "measured_on, source, imported_from FROM measurement_sets WHERE compound_id = ? ORDER BY id");
-  Statement couplings(db,
-                      "SELECT nucleus_a, nucleus_b, atoms_a, atoms_b, path, bond_count, isotope_a, isotope_b, j_hz, "
-                      "sigma_hz, sign_known, assignment, ranks_a, ranks_b, identity, karplus_set, note, origin "
-                      "FROM couplings WHERE set_id = ? ORDER BY id");
+  Statement couplings(db, "SELECT " + coupling_columns() + " FROM couplings WHERE set_id = ? ORDER BY id");
   std::vector<Entry> out;
   for (const auto id : ids) {
     compound.bind(1, id);
@@ -361,26 +359,7 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
       set_notes.reset();
       couplings.bind(1, set_id);
       while (couplings.step()) {
-        CouplingRecord k;
-        k.nucleus_a = couplings.text(0);
-        k.nucleus_b = couplings.text(1);
-        k.atoms_a = split_atoms(couplings.text(2), '|');
-        k.atoms_b = split_atoms(couplings.text(3), '|');
-        k.path = split_atoms(couplings.text(4), '-');
-        k.bond_count = static_cast<int>(couplings.integer(5));
-        k.isotope_a = couplings.text(6);
-        k.isotope_b = couplings.text(7);
-        k.j_hz = couplings.real(8);
-        k.sigma_hz = couplings.optional_real(9);
-        k.sign_known = couplings.integer(10) != 0;
-        k.stereo_unassigned = couplings.text(11) == "stereo-unassigned";
-        k.ranks_a = couplings.text(12);
-        k.ranks_b = couplings.text(13);
-        k.identity = couplings.text(14);
-        k.karplus_set = couplings.text(15);
-        k.note = couplings.text(16);
-        k.origin = couplings.text(17);
-        s.couplings.push_back(std::move(k));
+        s.couplings.push_back(read_coupling(couplings, 0));
       }
       couplings.reset();
       e.sets.push_back(std::move(s));

@@ -2,17 +2,12 @@
 
 #include <gtest/gtest.h>
 
+#include "core/error_testing.h"
+
 namespace vicinal::predict {
 namespace {
 
-std::string error_of(const std::function<void()>& f) {
-  try {
-    f();
-  } catch (const Error& e) {
-    return e.one_line();
-  }
-  return "no error";
-}
+using vicinal::testing::error_of;
 
 TEST(CouplingList, ParsesRowsAlternativesAndExtraColumns) {
   const auto t = CsvTable::parse(

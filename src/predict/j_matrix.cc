@@ -66,8 +66,7 @@ void fill_substituents(const OpenBabel::OBMol& mol, CouplingSpec& spec) {
   spec.karplus_substituents = structure::as_karplus(spec.substituents);
 }
 
-CouplingSpec resolve_pair(const OpenBabel::OBMol& mol, const structure::AtomLabels& labels,
-                          const std::vector<std::string>& names, SetMatcher& matcher, int a, int b,
+CouplingSpec resolve_pair(const OpenBabel::OBMol& mol, const std::vector<std::string>& names, SetMatcher& matcher, int a, int b,
                           const std::string& set_choice) {
   auto& m = const_cast<OpenBabel::OBMol&>(mol);
   CouplingSpec spec;
@@ -136,7 +135,7 @@ CouplingSpec resolve_coupling(const OpenBabel::OBMol& mol, const structure::Atom
   try {
     const int a = labels.resolve(refs[0], &mol);
     const int b = labels.resolve(refs[1], &mol);
-    return resolve_pair(mol, labels, names, matcher, a, b, set_choice);
+    return resolve_pair(mol, names, matcher, a, b, set_choice);
   } catch (const Error& e) {
     throw with_location(e, where);
   }
@@ -157,7 +156,7 @@ std::vector<CouplingSpec> resolve_couplings(const OpenBabel::OBMol& mol, const s
     try {
       const int a = labels.resolve(row.nuclei[0][0], &mol);
       const int b = labels.resolve(row.nuclei[1][0], &mol);
-      CouplingSpec spec = resolve_pair(mol, labels, names, matcher, a, b, row.set.empty() ? set_choice : row.set);
+      CouplingSpec spec = resolve_pair(mol, names, matcher, a, b, row.set.empty() ? set_choice : row.set);
       spec.j_obs_hz = row.j_hz;
       spec.sigma_hz = row.sigma_hz;
       spec.line = row.line;
@@ -190,7 +189,7 @@ std::vector<CouplingSpec> couplings_from_pattern(const OpenBabel::OBMol& mol, co
       const std::array<int, 2> key{std::min(pair[0], pair[1]), std::max(pair[0], pair[1])};
       if (!seen.insert(key).second) continue;
       try {
-        specs.push_back(resolve_pair(mol, labels, names, matcher, pair[0], pair[1], set_choice));
+        specs.push_back(resolve_pair(mol, names, matcher, pair[0], pair[1], set_choice));
       } catch (const Error& e) {
         if (skipped) skipped->push_back(e.what_happened());
       }

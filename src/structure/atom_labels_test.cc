@@ -1,6 +1,8 @@
 #include "structure/atom_labels.h"
 
 #include <gtest/gtest.h>
+
+#include "core/error_testing.h"
 #include <openbabel/generic.h>
 
 #include "structure/molecule_io.h"
@@ -9,14 +11,7 @@
 namespace vicinal::structure {
 namespace {
 
-std::string error_of(const std::function<void()>& f) {
-  try {
-    f();
-  } catch (const Error& e) {
-    return e.one_line();
-  }
-  return "no error";
-}
+using vicinal::testing::error_of;
 
 TEST(AtomLabels, ResolvesLabelsIndicesAndElementIndices) {
   OpenBabel::OBMol mol = molecule_from_smiles("CCO", false);  // C1 C2 O3, then H

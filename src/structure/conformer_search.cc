@@ -6,6 +6,7 @@
 #include <openbabel/forcefield.h>
 #include <openbabel/bond.h>
 #include <openbabel/obiter.h>
+#include <openbabel/ring.h>
 #include <openbabel/rotor.h>
 
 #include <algorithm>
@@ -25,6 +26,12 @@ constexpr int kSystematicRotorLimit = 5;
 // Short minimisation inside the rotor search; every kept candidate is then
 // minimised fully (options.minimise_steps).
 constexpr int kSearchGeometrySteps = 50;
+// Ring flips are tried for every subset of at most this many flexible rings
+// (2^n - 1 flipped starting structures).
+constexpr int kFlippedRingLimit = 3;
+// Flexible rings: non-aromatic, 4 to 8 atoms (smaller rings have one shape,
+// larger ones need more than a flip).
+constexpr unsigned kSmallestFlexibleRing = 4, kLargestFlexibleRing = 8;
 
 OpenBabel::OBForceField& mmff94_for(OpenBabel::OBMol& mol) {
   OpenBabel::OBForceField* ff = OpenBabel::OBForceField::FindForceField("MMFF94");
@@ -106,6 +113,88 @@ double largest_torsion_difference_deg(OpenBabel::OBMol& mol, const std::vector<s
   return worst;
 }
 
+
+// The torsions of each flexible ring: four consecutive ring atoms, all the way
+// round. A ring's shape (chair, the other chair, envelope) is fixed by them.
+std::vector<std::vector<std::array<int, 4>>> flexible_ring_torsions(OpenBabel::OBMol& mol) {
+  std::vector<std::vector<std::array<int, 4>>> out;
+  for (OpenBabel::OBRing* ring : mol.GetSSSR()) {
+    const std::vector<int>& path = ring->_path;  // atom indices in ring order
+    if (ring->IsAromatic() || path.size() < kSmallestFlexibleRing || path.size() > kLargestFlexibleRing) continue;
+    std::vector<std::array<int, 4>> torsions;
+    const std::size_t m = path.size();
+    for (std::size_t i = 0; i < m; ++i)
+      torsions.push_back({path[i], path[(i + 1) % m], path[(i + 2) % m], path[(i + 3) % m]});
+    out.push_back(std::move(torsions));
+  }
+  return out;
+}
+
+// Sign of the volume spanned by the first three neighbours of every atom with
+// four neighbours: a change means an atom was inverted (stereo lost).
+std::vector<int> tetrahedral_signs(OpenBabel::OBMol& mol) {
+  std::vector<int> signs;
+  for (auto it = mol.BeginAtoms(); it != mol.EndAtoms(); ++it) {
+    OpenBabel::OBAtom* a = *it;
+    if (a->GetExplicitDegree() != 4) continue;
+    std::vector<OpenBabel::vector3> v;
+    FOR_NBORS_OF_ATOM(n, a) v.push_back(n->GetVector() - a->GetVector());
+    signs.push_back(OpenBabel::dot(v[0], OpenBabel::cross(v[1], v[2])) > 0 ? 1 : -1);
+  }
+  return signs;
+}
+
+// Starting structures with the flexible rings in other shapes: for each subset
+// of rings, every ring torsion of those rings is driven to minus its value
+// (a chair becomes the other chair, an envelope its mirror pucker) under
+// torsion restraints, then the restraints are released and the structure
+// minimised. Results that invert an atom or fall back to a shape already
+// found are dropped. The first start is `mol` itself.
+std::vector<std::vector<double>> ring_starting_structures(
+    OpenBabel::OBMol& mol, const std::vector<std::vector<std::array<int, 4>>>& rings, const ConformerOptions& options,
+    double torsion_deg) {
+  std::vector<std::vector<double>> starts{coordinates_of(mol)};
+  const std::vector<int> signs = tetrahedral_signs(mol);
+  const int n_rings = std::min<int>(static_cast<int>(rings.size()), kFlippedRingLimit);
+  std::vector<std::array<int, 4>> all_ring_torsions;
+  for (const auto& r : rings) all_ring_torsions.insert(all_ring_torsions.end(), r.begin(), r.end());
+  for (int mask = 1; mask < (1 << n_rings); ++mask) {
+    OpenBabel::OBMol work(mol);
+    OpenBabel::OBFFConstraints restraints;
+    for (int r = 0; r < n_rings; ++r)
+      if (mask & (1 << r))
+        for (const auto& t : rings[r]) restraints.AddTorsionConstraint(t[0], t[1], t[2], t[3], -work.GetTorsion(t[0], t[1], t[2], t[3]));
+    OpenBabel::OBForceField& ff = mmff94_for(work);
+    ff.Setup(work, restraints);
+    ff.ConjugateGradients(options.minimise_steps, 1e-6);
+    ff.GetCoordinates(work);  // Setup below restarts from the molecule's coordinates
+    OpenBabel::OBFFConstraints none;
+    ff.Setup(work, none);
+    ff.ConjugateGradients(options.minimise_steps, 1e-6);
+    ff.GetCoordinates(work);
+    if (tetrahedral_signs(work) != signs) continue;
+    const std::vector<double> xyz = coordinates_of(work);
+    const bool seen = std::any_of(starts.begin(), starts.end(), [&](const std::vector<double>& s) {
+      return largest_torsion_difference_deg(work, all_ring_torsions, xyz, s) < torsion_deg;
+    });
+    if (!seen) starts.push_back(xyz);
+  }
+  return starts;
+}
+
+// Number of distinct ring shapes among the frames (ring torsions within
+// torsion_deg count as one shape).
+int distinct_ring_shapes(OpenBabel::OBMol& mol, const std::vector<std::array<int, 4>>& ring_torsions,
+                         const Ensemble& ensemble, double torsion_deg) {
+  std::vector<std::size_t> shapes;
+  for (std::size_t f = 0; f < ensemble.frame_count(); ++f)
+    if (std::none_of(shapes.begin(), shapes.end(), [&](std::size_t g) {
+          return largest_torsion_difference_deg(mol, ring_torsions, ensemble.frame(f), ensemble.frame(g)) < torsion_deg;
+        }))
+      shapes.push_back(f);
+  return static_cast<int>(shapes.size());
+}
+
 }  // namespace
 
 double heavy_atom_rmsd(const OpenBabel::OBMol& topology, std::span<const double> a, std::span<const double> b) {
@@ -128,32 +217,51 @@ Ensemble generate_conformers(const OpenBabel::OBMol& input, const ConformerOptio
   ff.ConjugateGradients(options.minimise_steps, 1e-6);
   ff.GetCoordinates(mol);
 
+  // Ring shapes first: every starting structure then gets the rotor search.
+  const auto rings = flexible_ring_torsions(mol);
+  const auto starts = ring_starting_structures(mol, rings, options, options.torsion_deg);
+  rep.flexible_rings = static_cast<int>(rings.size());
+  rep.ring_starts = static_cast<int>(starts.size());
+
   OpenBabel::OBRotorList rotors;
   rotors.Setup(mol);
   rep.rotors = static_cast<int>(rotors.Size());
   if (rep.rotors == 0) {
-    rep.method = "no rotatable bonds: one MMFF94-minimised structure";
+    rep.method = "no rotatable bonds: MMFF94-minimised structure";
   } else if (rep.rotors <= kSystematicRotorLimit) {
     rep.method = fmt::format("systematic rotor search over {} rotatable bond{} (every torsion combination)", rep.rotors,
                              rep.rotors == 1 ? "" : "s");
-    progress.start("rotor search", 1);
-    ff.SystematicRotorSearch(kSearchGeometrySteps);
-    ff.GetConformers(mol);
   } else {
-    const int samples = std::max(100, 10 * options.max_conformers);
-    rep.method = fmt::format("weighted random rotor search over {} rotatable bonds ({} samples)", rep.rotors, samples);
-    progress.start("rotor search", 1);
-    ff.WeightedRotorSearch(samples, kSearchGeometrySteps);
-    ff.GetConformers(mol);
+    rep.method = fmt::format("weighted random rotor search over {} rotatable bonds ({} samples)", rep.rotors,
+                             std::max(100, 10 * options.max_conformers));
   }
+  if (!rings.empty())
+    rep.method += fmt::format(" from {} ring starting structure{} ({} flexible ring{}, each flipped by inverting "
+                              "its ring torsions)",
+                              starts.size(), starts.size() == 1 ? "" : "s", rings.size(), rings.size() == 1 ? "" : "s");
 
-  // Candidate coordinates: every conformer the search left in the molecule.
+  // Candidate coordinates: every conformer the search left, for every start.
   const int n = static_cast<int>(mol.NumAtoms());
   std::vector<std::vector<double>> candidates;
-  for (int c = 0; c < std::max(1, mol.NumConformers()); ++c) {
-    if (mol.NumConformers() > 0) mol.SetConformer(c);
-    candidates.push_back(coordinates_of(mol));
+  progress.start("rotor search", starts.size());
+  for (std::size_t s = 0; s < starts.size(); ++s) {
+    OpenBabel::OBMol start(input);
+    start.SetCoordinates(const_cast<double*>(starts[s].data()));
+    if (rep.rotors > 0) {
+      OpenBabel::OBForceField& f = mmff94_for(start);
+      if (rep.rotors <= kSystematicRotorLimit)
+        f.SystematicRotorSearch(kSearchGeometrySteps);
+      else
+        f.WeightedRotorSearch(std::max(100, 10 * options.max_conformers), kSearchGeometrySteps);
+      f.GetConformers(start);
+    }
+    for (int c = 0; c < std::max(1, start.NumConformers()); ++c) {
+      if (start.NumConformers() > 0) start.SetConformer(c);
+      candidates.push_back(coordinates_of(start));
+    }
+    progress.advance(s + 1);
   }
+  progress.finish();
   rep.searched = static_cast<int>(candidates.size());
 
   // Full minimisation of each candidate, then energies.
@@ -178,7 +286,12 @@ Ensemble generate_conformers(const OpenBabel::OBMol& input, const ConformerOptio
 
   const auto heavy = heavy_atom_indices(mol);
   OpenBabel::OBMol probe(input);
-  const auto torsions = chain_torsions(probe);
+  // Chain torsions and ring torsions together: two ring shapes with the same
+  // side chains are different conformers.
+  auto torsions = chain_torsions(probe);
+  std::vector<std::array<int, 4>> ring_torsions;
+  for (const auto& r : rings) ring_torsions.insert(ring_torsions.end(), r.begin(), r.end());
+  torsions.insert(torsions.end(), ring_torsions.begin(), ring_torsions.end());
   Ensemble out;
   out.topology = input;
   out.source = "conformer search";
@@ -203,6 +316,7 @@ Ensemble generate_conformers(const OpenBabel::OBMol& input, const ConformerOptio
   if (n > 0) out.topology.SetCoordinates(out.xyz.data());
   out.weight = boltzmann_weights(out.energy_kcal_mol, options.temperature_k);
   for (std::size_t f = 0; f < out.frame_count(); ++f) out.titles.push_back(fmt::format("conformer {}", f + 1));
+  rep.ring_shapes = ring_torsions.empty() ? 0 : distinct_ring_shapes(probe, ring_torsions, out, options.torsion_deg);
   return out;
 }
 

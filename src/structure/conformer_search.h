@@ -1,5 +1,6 @@
-// Conformer generation with Open Babel: 3D build, MMFF94 minimisation, a
-// rotor search, duplicate removal by heavy-atom RMSD after alignment, and
+// Conformer generation with Open Babel: 3D build, MMFF94 minimisation, ring
+// flips (each flexible ring's torsions inverted), a rotor search from every
+// ring shape, duplicate removal by heavy-atom RMSD after alignment, and
 // MMFF94 energies with Boltzmann weights at a temperature.
 #pragma once
 
@@ -18,7 +19,7 @@ struct ConformerOptions {
   double temperature_k = 298.15;
   int max_conformers = 30;
   // Two conformers are one when their heavy-atom RMSD (after superposition) is
-  // below rmsd_angstrom AND every chain torsion agrees within torsion_deg. The
+  // below rmsd_angstrom AND every chain and ring torsion agrees within torsion_deg. The
   // torsion test keeps mirror-image gauche forms and OH rotamers apart, which
   // RMSD alone would merge.
   double rmsd_angstrom = 0.5;
@@ -30,6 +31,9 @@ struct ConformerOptions {
 
 struct ConformerReport {
   int rotors = 0;
+  int flexible_rings = 0;  // non-aromatic rings of 4 to 8 atoms
+  int ring_starts = 0;     // distinct ring shapes the search started from (1 without flexible rings)
+  int ring_shapes = 0;     // distinct ring shapes among the kept conformers (0 without flexible rings)
   int searched = 0;       // conformers produced by the search before filtering
   int duplicates = 0;     // dropped as duplicates (RMSD and torsions)
   int above_window = 0;   // dropped by the energy window

@@ -1,6 +1,7 @@
 #include "structure/conformer_search.h"
 
 #include <gtest/gtest.h>
+#include <openbabel/atom.h>
 
 #include <algorithm>
 #include <cmath>
@@ -10,11 +11,42 @@
 namespace vicinal::structure {
 namespace {
 
-double torsion(const Ensemble& e, std::size_t f) {
+double torsion(const Ensemble& e, std::size_t f, int a = 1, int b = 2, int c = 3, int d = 4) {
   OpenBabel::OBMol m(e.topology);
   std::vector<double> xyz(e.frame(f).begin(), e.frame(f).end());
   m.SetCoordinates(xyz.data());
-  return m.GetTorsion(1, 2, 3, 4);
+  return m.GetTorsion(a, b, c, d);
+}
+
+int hydrogen_on(const OpenBabel::OBMol& mol, int heavy) {
+  auto& m = const_cast<OpenBabel::OBMol&>(mol);
+  for (unsigned i = 1; i <= m.NumAtoms(); ++i)
+    if (m.GetAtom(i)->GetAtomicNum() == 1 && m.GetBond(static_cast<int>(i), heavy)) return static_cast<int>(i);
+  return 0;
+}
+
+// 2-(hydroxymethyl)oxan-3-ol: atoms O1 1, C2 2, CH2OH 3-4, C3 5, O3 6, C4 7,
+// C5 8, C6 9. Each chair and its ring flip must both be found.
+struct Chairs {
+  Ensemble e;
+  std::vector<double> h2_h3_deg;    // H2-C2-C3-H3 per frame
+  std::vector<double> ring_deg;     // O1-C2-C3-C4 per frame (sign tells the chair)
+};
+
+Chairs oxanol_chairs(const std::string& smiles) {
+  const OpenBabel::OBMol mol = molecule_from_smiles(smiles, true);
+  ConformerReport report;
+  Chairs out{generate_conformers(mol, {}, &report), {}, {}};
+  EXPECT_EQ(report.flexible_rings, 1);
+  EXPECT_EQ(report.ring_shapes, 2) << report.method;
+  const int h2 = hydrogen_on(mol, 2), h3 = hydrogen_on(mol, 5);
+  for (std::size_t f = 0; f < out.e.frame_count(); ++f) {
+    out.h2_h3_deg.push_back(torsion(out.e, f, h2, 2, 5, h3));
+    out.ring_deg.push_back(torsion(out.e, f, 1, 2, 5, 7));
+    std::printf("DEBUG %zu E=%.3f hh=%.1f ring=%.1f\n", f, out.e.energy_kcal_mol[f], out.h2_h3_deg.back(), out.ring_deg.back());
+  }
+  std::printf("DEBUG %s searched %d dup %d above %d\n", report.method.c_str(), report.searched, report.duplicates, report.above_window);
+  return out;
 }
 
 // Butane has one anti and two mirror-image gauche conformers, the gauche ones
@@ -47,6 +79,37 @@ TEST(ConformerSearch, LooseThresholdsMergeConformers) {
   options = {};
   options.max_conformers = 2;
   EXPECT_EQ(generate_conformers(mol, options).frame_count(), 2u);
+}
+
+// Ring flips are sampled: trans-2,3-disubstituted oxane has a chair with both
+// substituents equatorial (H2 and H3 axial, H-C-C-H near 180 deg) and, after
+// the flip, one with both axial (H-C-C-H near 60 deg); the diequatorial chair
+// is the lower (common practice: substituents prefer equatorial positions).
+// In the cis isomer both chairs have H-C-C-H gauche; they differ in the sign
+// of the ring torsions (one substituent axial, the other equatorial, swapped).
+TEST(ConformerSearch, RingFlipsGiveBothChairsOfAnOxane) {
+  const Chairs trans = oxanol_chairs("O1[C@H](CO)[C@@H](O)CCC1");
+  ASSERT_GT(trans.e.frame_count(), 1u);
+  const auto anti = [](double t) { return std::abs(t) > 150; };
+  const auto gauche = [](double t) { return std::abs(t) > 35 && std::abs(t) < 85; };
+  EXPECT_TRUE(std::any_of(trans.h2_h3_deg.begin(), trans.h2_h3_deg.end(), anti));
+  EXPECT_TRUE(std::any_of(trans.h2_h3_deg.begin(), trans.h2_h3_deg.end(), gauche));
+  // Lowest frame is diequatorial; its ring torsion has the opposite sign to the flipped chair's.
+  EXPECT_TRUE(anti(trans.h2_h3_deg[0])) << trans.h2_h3_deg[0];
+  double lowest_diaxial = 1e9;
+  for (std::size_t f = 0; f < trans.e.frame_count(); ++f)
+    if (gauche(trans.h2_h3_deg[f])) {
+      lowest_diaxial = std::min(lowest_diaxial, trans.e.energy_kcal_mol[f]);
+      EXPECT_LT(trans.ring_deg[f] * trans.ring_deg[0], 0);
+    }
+  EXPECT_GT(lowest_diaxial, trans.e.energy_kcal_mol[0]);
+
+  const Chairs cis = oxanol_chairs("O1[C@H](CO)[C@H](O)CCC1");
+  ASSERT_GT(cis.e.frame_count(), 1u);
+  for (double t : cis.h2_h3_deg) EXPECT_TRUE(gauche(t)) << t;
+  const auto chair_torsion = [](double t) { return std::abs(t) > 40 && std::abs(t) < 75; };
+  EXPECT_TRUE(std::any_of(cis.ring_deg.begin(), cis.ring_deg.end(), [&](double t) { return chair_torsion(t) && t > 0; }));
+  EXPECT_TRUE(std::any_of(cis.ring_deg.begin(), cis.ring_deg.end(), [&](double t) { return chair_torsion(t) && t < 0; }));
 }
 
 }  // namespace

@@ -1,6 +1,8 @@
 #include "structure/coupling_path.h"
 
 #include <gtest/gtest.h>
+
+#include "core/error_testing.h"
 #include <openbabel/atom.h>
 #include <openbabel/obiter.h>
 
@@ -16,14 +18,7 @@ int hydrogen_on(OpenBabel::OBMol& mol, int heavy) {
   return 0;
 }
 
-std::string error_of(const std::function<void()>& f) {
-  try {
-    f();
-  } catch (const Error& e) {
-    return e.one_line();
-  }
-  return "no error";
-}
+using vicinal::testing::error_of;
 
 TEST(CouplingPath, FindsTheVicinalPathOfButane) {
   OpenBabel::OBMol mol = molecule_from_smiles("CCCC", false);

@@ -2,20 +2,14 @@
 
 #include <gtest/gtest.h>
 
+#include "core/error_testing.h"
 #include "core/error.h"
 #include "structure/test_files.h"
 
 namespace vicinal::structure {
 namespace {
 
-std::string error_of(const std::function<void()>& f) {
-  try {
-    f();
-  } catch (const Error& e) {
-    return e.one_line();
-  }
-  return "no error";
-}
+using vicinal::testing::error_of;
 
 // Boltzmann weights against a hand calculation: RT = 8.314462618 J/(mol K) x
 // 298.15 K / 4184 J/kcal = 0.592485 kcal/mol; w_i = exp(-E_i/RT) / sum, for

@@ -1,12 +1,16 @@
 #include "structure/molecule_io.h"
 
 #include <fmt/format.h>
+#include <openbabel/atom.h>
+#include <openbabel/bond.h>
 #include <openbabel/builder.h>
 #include <openbabel/forcefield.h>
 #include <openbabel/obfunctions.h>
 #include <openbabel/obconversion.h>
 #include <openbabel/op.h>
+#include <openbabel/stereo/cistrans.h>
 #include <openbabel/stereo/stereo.h>
+#include <openbabel/stereo/tetrahedral.h>
 
 #include <algorithm>
 #include <filesystem>
@@ -27,22 +31,38 @@ std::string join_messages(const std::vector<std::string>& messages) {
   return out;
 }
 
-// Canonical isomeric SMILES of the heavy-atom skeleton. With `from_3d` the
-// stereo is perceived from the coordinates rather than taken from the input.
-std::string canonical_smiles(const OpenBabel::OBMol& mol, bool from_3d) {
-  OpenBabel::OBMol copy(mol);
-  if (from_3d) {
-    copy.SetDimension(3);
-    copy.DeleteData(OpenBabel::OBGenericDataType::StereoData);
-    OpenBabel::StereoFrom3D(&copy, true);
-  }
-  copy.DeleteHydrogens();
+// Canonical isomeric SMILES of the heavy-atom skeleton with the stereo data
+// `mol` carries (changes `mol`: hydrogens are deleted).
+std::string canonical_smiles_of(OpenBabel::OBMol& mol) {
+  mol.DeleteHydrogens();
   OpenBabel::OBConversion conv;
   conv.SetOutFormat("can");
   conv.AddOption("n", OpenBabel::OBConversion::OUTOPTIONS);
-  std::string text = conv.WriteString(&copy, true);
+  std::string text = conv.WriteString(&mol, true);
   while (!text.empty() && std::isspace(static_cast<unsigned char>(text.back()))) text.pop_back();
   return text;
+}
+
+std::string atom_list(const std::vector<int>& atoms) {
+  std::string out;
+  for (int a : atoms) out += (out.empty() ? "" : ", ") + std::to_string(a);
+  return out;
+}
+
+// Names the stereo units the input left open, for the user.
+std::string unspecified_note(const StereoCheck& check) {
+  std::vector<std::string> parts;
+  if (!check.unspecified_centres.empty())
+    parts.push_back(fmt::format("stereocentre{} at atom{} {}", check.unspecified_centres.size() == 1 ? "" : "s",
+                                check.unspecified_centres.size() == 1 ? "" : "s", atom_list(check.unspecified_centres)));
+  if (!check.unspecified_double_bonds.empty()) {
+    std::string bonds;
+    for (const auto& [a, b] : check.unspecified_double_bonds) bonds += (bonds.empty() ? "" : ", ") + fmt::format("{}={}", a, b);
+    parts.push_back(fmt::format("double bond{} {}", check.unspecified_double_bonds.size() == 1 ? "" : "s", bonds));
+  }
+  return fmt::format("{} not specified in the input: the 3D structure took an arbitrary configuration there "
+                     "(specify it to choose)",
+                     parts.size() == 1 ? parts[0] : parts[0] + " and " + parts[1]);
 }
 
 void minimise_mmff94(OpenBabel::OBMol& mol, int steps) {
@@ -74,17 +94,17 @@ bool build_once(OpenBabel::OBMol& mol, int attempt) {
 }
 
 // Builds 3D coordinates and checks that the result keeps the stereochemistry
-// of `mol` (compared as canonical isomeric SMILES); never returns a structure
-// with other stereo.
+// `mol` specifies; never returns a structure with other stereo.
 void build_3d_checked(OpenBabel::OBMol& mol, const std::string& what, ReadNotes* notes) {
-  const std::string wanted = canonical_smiles(mol, false);
-  std::string last;
+  StereoCheck last;
+  bool built = false;
   for (int attempt = 0; attempt < 3; ++attempt) {
     OpenBabel::OBMol trial(mol);
     LogCapture log;
     if (!build_once(trial, attempt)) continue;
-    last = canonical_smiles(trial, true);
-    if (last == wanted) {
+    built = true;
+    last = compare_specified_stereo(mol, trial);
+    if (last.same) {
       mol = trial;
       if (notes) {
         notes->built_3d = true;
@@ -92,13 +112,15 @@ void build_3d_checked(OpenBabel::OBMol& mol, const std::string& what, ReadNotes*
                                                : fmt::format("3D coordinates rebuilt (attempt {}) to keep the "
                                                              "stereochemistry; stereo checked",
                                                              attempt + 1));
+        if (!last.unspecified_centres.empty() || !last.unspecified_double_bonds.empty())
+          notes->messages.push_back(unspecified_note(last));
       }
       return;
     }
   }
   throw Error(fmt::format("could not build 3D coordinates of {} that keep its stereochemistry "
                           "(wanted {}, got {})",
-                          what, wanted, last.empty() ? "no structure" : last),
+                          what, built ? last.wanted : "a structure", built ? last.got : "no structure"),
               {}, "give a 3D structure file instead (SDF, MOL2, PDB)");
 }
 
@@ -114,6 +136,53 @@ void make_hydrogens_explicit(OpenBabel::OBMol& mol, ReadNotes* notes) {
 }
 
 }  // namespace
+
+StereoCheck compare_specified_stereo(const OpenBabel::OBMol& wanted, const OpenBabel::OBMol& built) {
+  using namespace OpenBabel;
+  StereoCheck out;
+  OBMol ref(wanted);
+  OBStereoFacade asked(&ref, false);  // the stereo data as read, not re-perceived
+  OBMol have(built);
+  have.SetDimension(3);
+  have.DeleteData(OBGenericDataType::StereoData);
+  StereoFrom3D(&have, true);
+  const auto centre_specified = [&](unsigned idx) {
+    OBAtom* a = ref.GetAtom(idx);
+    return a && asked.HasTetrahedralStereo(a->GetId()) && asked.GetTetrahedralStereo(a->GetId())->IsSpecified();
+  };
+  const auto bond_specified = [&](unsigned begin, unsigned end) {
+    OBBond* b = ref.GetBond(begin, end);
+    return b && asked.HasCisTransStereo(b->GetId()) && asked.GetCisTransStereo(b->GetId())->IsSpecified();
+  };
+  // Stereo units perceived in 3D that the input leaves open are dropped before
+  // the comparison: any configuration is acceptable there.
+  std::vector<OBGenericData*> open;
+  for (OBGenericData* data : have.GetAllData(OBGenericDataType::StereoData)) {
+    const auto type = static_cast<OBStereoBase*>(data)->GetType();
+    if (type == OBStereo::Tetrahedral) {
+      const unsigned idx = have.GetAtomById(static_cast<OBTetrahedralStereo*>(data)->GetConfig().center)->GetIdx();
+      if (centre_specified(idx)) continue;
+      out.unspecified_centres.push_back(static_cast<int>(idx));
+    } else if (type == OBStereo::CisTrans) {
+      const auto config = static_cast<OBCisTransStereo*>(data)->GetConfig();
+      const unsigned first = have.GetAtomById(config.begin)->GetIdx();
+      const unsigned second = have.GetAtomById(config.end)->GetIdx();
+      if (bond_specified(first, second)) continue;
+      out.unspecified_double_bonds.emplace_back(static_cast<int>(std::min(first, second)),
+                                                static_cast<int>(std::max(first, second)));
+    } else {
+      continue;
+    }
+    open.push_back(data);
+  }
+  for (OBGenericData* data : open) have.DeleteData(data);
+  std::sort(out.unspecified_centres.begin(), out.unspecified_centres.end());
+  std::sort(out.unspecified_double_bonds.begin(), out.unspecified_double_bonds.end());
+  out.wanted = canonical_smiles_of(ref);
+  out.got = canonical_smiles_of(have);
+  out.same = out.wanted == out.got;
+  return out;
+}
 
 int add_missing_hydrogens(OpenBabel::OBMol& mol) {
   bool any_h = false;

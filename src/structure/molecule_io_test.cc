@@ -28,6 +28,49 @@ TEST(MoleculeIo, SmilesGetsHydrogensAndCheckedStereo) {
   EXPECT_TRUE(mol.Has3D());
 }
 
+TEST(MoleculeIo, UnspecifiedStereocentresTakeAnyConfigurationWithANote) {
+  // Lactic acid and oxolan-3-ol written without stereo: each has one
+  // stereocentre (atom 2 and atom 2), which any 3D structure must fix one way.
+  for (const std::string smiles : {"CC(O)C(=O)O", "OC1CCOC1"}) {
+    ReadNotes notes;
+    OpenBabel::OBMol mol = molecule_from_smiles(smiles, true, &notes);
+    EXPECT_TRUE(mol.Has3D()) << smiles;
+    std::string all;
+    for (const auto& m : notes.messages) all += m + "\n";
+    EXPECT_NE(all.find("stereocentre at atom 2 not specified"), std::string::npos) << smiles << ": " << all;
+    EXPECT_NE(all.find("arbitrary configuration"), std::string::npos) << all;
+  }
+  // A specified centre beside an unspecified one: only the open one is named.
+  ReadNotes notes;
+  molecule_from_smiles("C[C@@H](O)C(O)CC", true, &notes);
+  std::string all;
+  for (const auto& m : notes.messages) all += m + "\n";
+  EXPECT_NE(all.find("stereocentre at atom 4 not specified"), std::string::npos) << all;
+}
+
+TEST(MoleculeIo, SpecifiedStereoIsStillCompared) {
+  // The 3D structure of (S)-butan-2-ol checked against the SMILES of the (R)
+  // form (same atom order): a mismatch.
+  const OpenBabel::OBMol built = molecule_from_smiles("C[C@H](O)CC", true);
+  const OpenBabel::OBMol r_form = molecule_from_smiles("C[C@@H](O)CC", false);
+  const StereoCheck mismatch = compare_specified_stereo(r_form, built);
+  EXPECT_FALSE(mismatch.same);
+  EXPECT_TRUE(mismatch.unspecified_centres.empty());
+  EXPECT_NE(mismatch.wanted, mismatch.got);
+  const OpenBabel::OBMol s_form = molecule_from_smiles("C[C@H](O)CC", false);
+  EXPECT_TRUE(compare_specified_stereo(s_form, built).same);
+  // Without stereo in the wanted SMILES, any configuration passes and the centre is listed.
+  const StereoCheck open = compare_specified_stereo(molecule_from_smiles("CC(O)CC", false), built);
+  EXPECT_TRUE(open.same) << open.wanted << " vs " << open.got;
+  EXPECT_EQ(open.unspecified_centres, std::vector<int>{2});
+  // A double bond: E wanted, Z built.
+  const OpenBabel::OBMol z_built = molecule_from_smiles("C/C=C\\CO", true);
+  EXPECT_FALSE(compare_specified_stereo(molecule_from_smiles("C/C=C/CO", false), z_built).same);
+  const StereoCheck open_bond = compare_specified_stereo(molecule_from_smiles("CC=CCO", false), z_built);
+  EXPECT_TRUE(open_bond.same);
+  EXPECT_EQ(open_bond.unspecified_double_bonds, (std::vector<std::pair<int, int>>{{2, 3}}));
+}
+
 TEST(MoleculeIo, BadSmilesAndFilesAreNamed) {
   EXPECT_NE(error_of([] { molecule_from_smiles("C1CC(", false); }).find("SMILES 'C1CC('"), std::string::npos);
   EXPECT_NE(error_of([] { read_molecule("/nonexistent/a.sdf"); }).find("/nonexistent/a.sdf"), std::string::npos);

@@ -198,4 +198,14 @@ run 2 --library "$WORK/newer.sqlite" library show ethanol; one_line_error; conta
 echo "not a database" > junk.sqlite
 run 2 --library "$WORK/junk.sqlite" library show ethanol; one_line_error
 run 2 --library "$WORK/none.sqlite" library show ethanol; one_line_error; contains err "library init"
+
+# Rows sharing stereo-unassigned alternatives are one group (H-4a/H-4b in an
+# unknown order), not two values of one coupling: importing the demo's file
+# twice adds five couplings, reports no conflict, and finds them all present.
+run 0 --library "$WORK/groups.sqlite" library init
+run 0 --library "$WORK/groups.sqlite" --json library import "$VICINAL_DATA_DIR/examples/demo/couplings.csv"
+[[ $(json_get 'len(d["conflicts"])') == 0 ]] || fail "alternatives reported as conflicts"
+run 0 --library "$WORK/groups.sqlite" --json library import "$VICINAL_DATA_DIR/examples/demo/couplings.csv"
+[[ $(json_get 'len(d["conflicts"])') == 0 ]] || fail "alternatives conflict on re-import"
+[[ $(count groups.sqlite "select count(*) from couplings") == 5 ]] || fail "re-import added rows"
 echo "library: ok"

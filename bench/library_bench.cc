@@ -1,0 +1,86 @@
+// Library import (CSV read + store in one transaction into a fresh file) and
+// lookup by compound name, by number of coupling rows (straight-chain
+// alcohols, see write_rows).
+#include <benchmark/benchmark.h>
+
+#include <filesystem>
+#include <fstream>
+#include <string>
+#include <vector>
+
+#include "core/progress.h"
+#include "library/formats.h"
+#include "library/query.h"
+#include "library/store.h"
+
+namespace {
+
+namespace fs = std::filesystem;
+using namespace vicinal::library;
+
+// Writes `rows` coupling rows: straight-chain alcohols C2O..C30O (no
+// symmetry, so every CH-CH pair is a distinct coupling), one H-H coupling per
+// neighbouring pair of carbons; hydrogens follow the heavy atoms. The same
+// scheme as bench/make_inputs.py, ends limited to OH here.
+std::string write_rows(int rows) {
+  const auto path = fs::temp_directory_path() / ("vicinal-bench-" + std::to_string(rows) + ".csv");
+  std::ofstream out(path);
+  out << "compound,smiles,measurement,solvent,temperature_k,field_mhz,source,nuclei,j_hz,sigma_hz\n";
+  int written = 0;
+  for (int measurement = 0; written < rows; ++measurement)
+    for (int n = 2; n <= 30 && written < rows; ++n) {
+      int first_h = n + 2;  // on C1 (3 H), then 2 on each further carbon
+      for (int c = 0; c + 1 < n && written < rows; ++c, ++written) {
+        const int next_h = first_h + (c == 0 ? 3 : 2);
+        out << 'C' << n << "O chain," << (c == 0 ? std::string(n, 'C') + "O" : "") << ",run " << measurement
+            << ",CDCl3," << 280 + measurement << ",400,generated,\"" << first_h << ',' << next_h << "\","
+            << 6.5 + 0.01 * ((c + measurement) % 50) << ",0.1\n";
+        first_h = next_h;
+      }
+    }
+  return path.string();
+}
+
+void import_csv(benchmark::State& state) {
+  const std::string csv = write_rows(static_cast<int>(state.range(0)));
+  const auto db = fs::temp_directory_path() / "vicinal-bench-import.sqlite";
+  vicinal::NoProgress progress;
+  for (auto _ : state) {
+    state.PauseTiming();
+    fs::remove(db);
+    state.ResumeTiming();
+    auto library = Library::create(db.string());
+    auto read = read_csv(csv, {});
+    auto report = library->store(read.entries, progress);
+    benchmark::DoNotOptimize(report.couplings_added);
+  }
+  state.SetItemsProcessed(state.iterations() * state.range(0));
+  fs::remove(db);
+  fs::remove(csv);
+}
+
+void find_by_name(benchmark::State& state) {
+  const std::string csv = write_rows(static_cast<int>(state.range(0)));
+  const auto db = fs::temp_directory_path() / "vicinal-bench-find.sqlite";
+  fs::remove(db);
+  vicinal::NoProgress progress;
+  auto library = Library::create(db.string());
+  library->store(read_csv(csv, {}).entries, progress);
+  FindQuery query;
+  query.name = "C5O";
+  for (auto _ : state) {
+    auto found = find_couplings(library->db(), query);
+    benchmark::DoNotOptimize(found.couplings.data());
+  }
+  library.reset();
+  fs::remove(db);
+  fs::remove(csv);
+}
+
+}  // namespace
+
+// Sizes are small because import builds 3D coordinates for every new compound
+// (tens of ms each, more with Open Babel OpenMP threads spinning): see latest.md.
+BENCHMARK(import_csv)->Arg(30)->Arg(100)->Arg(300)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(find_by_name)->Arg(30)->Arg(100)->Arg(300)->Unit(benchmark::kMillisecond);
+BENCHMARK_MAIN();

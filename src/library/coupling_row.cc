@@ -1,0 +1,47 @@
+#include "library/coupling_row.h"
+
+namespace vicinal::library {
+
+namespace {
+
+constexpr const char* kColumns[kCouplingColumnCount] = {
+    "nucleus_a", "nucleus_b",  "atoms_a",  "atoms_b", "path",    "bond_count",
+    "isotope_a", "isotope_b",  "j_hz",     "sigma_hz", "sign_known", "assignment",
+    "ranks_a",   "ranks_b",    "identity", "karplus_set", "note",  "origin"};
+
+}  // namespace
+
+std::string coupling_columns(const std::string& alias) {
+  std::string out;
+  for (const char* column : kColumns) {
+    if (!out.empty()) out += ", ";
+    if (!alias.empty()) out += alias + ".";
+    out += column;
+  }
+  return out;
+}
+
+CouplingRecord read_coupling(const Statement& st, int first) {
+  CouplingRecord c;
+  c.nucleus_a = st.text(first);
+  c.nucleus_b = st.text(first + 1);
+  c.atoms_a = split_atoms(st.text(first + 2), '|');
+  c.atoms_b = split_atoms(st.text(first + 3), '|');
+  c.path = split_atoms(st.text(first + 4), '-');
+  c.bond_count = static_cast<int>(st.integer(first + 5));
+  c.isotope_a = st.text(first + 6);
+  c.isotope_b = st.text(first + 7);
+  c.j_hz = st.real(first + 8);
+  c.sigma_hz = st.optional_real(first + 9);
+  c.sign_known = st.integer(first + 10) != 0;
+  c.stereo_unassigned = st.text(first + 11) == "stereo-unassigned";
+  c.ranks_a = st.text(first + 12);
+  c.ranks_b = st.text(first + 13);
+  c.identity = st.text(first + 14);
+  c.karplus_set = st.text(first + 15);
+  c.note = st.text(first + 16);
+  c.origin = st.text(first + 17);
+  return c;
+}
+
+}  // namespace vicinal::library

@@ -1,0 +1,20 @@
+// One place that knows how a CouplingRecord is stored in the couplings
+// table, for every query that reads couplings back.
+#pragma once
+
+#include <string>
+
+#include "library/records.h"
+#include "library/sqlite.h"
+
+namespace vicinal::library {
+
+// The columns read_coupling() expects, each prefixed with `alias.` when an
+// alias is given; kCouplingColumnCount of them.
+std::string coupling_columns(const std::string& alias = "");
+inline constexpr int kCouplingColumnCount = 18;
+
+// The record from a statement whose columns first..first+17 are coupling_columns().
+CouplingRecord read_coupling(const Statement& st, int first);
+
+}  // namespace vicinal::library
