@@ -12,6 +12,7 @@
 #include "core/parse.h"
 #include "report/plot.h"
 #include "report/table.h"
+#include "cli/multiplet_store.h"
 #include "spin/first_order.h"
 #include "spin/second_order.h"
 
@@ -29,6 +30,7 @@ struct Options {
   std::vector<double> partner_ppm;
   bool fit_partner_shifts = false;
   PlotTargets plot;
+  MultipletStoreOptions store;
 };
 
 std::vector<double> parse_list(const std::string& text, const std::string& option) {
@@ -156,6 +158,11 @@ void run_analyse(const Options& o, const Globals& g) {
     throw Error(fmt::format("{} partner shifts given, but the best reading ({}) has {} couplings",
                             o.partner_ppm.size(), best.multiplicity(), best.groups.size()),
                 Location::field_in("", "--partner"), "give one --partner PPM per coupling, largest J first");
+  // Stored before anything is printed, so a refused store leaves no output that looks like success.
+  const std::string stored =
+      o.store.requested()
+          ? store_multiplet(o.store, best, o.field_mhz, o.peaks_path.empty() ? "--peaks" : o.peaks_path, g)
+          : "";
   const double field = o.field_mhz.value_or(400.0);
   spin::MultipletModel model;
   model.field_mhz = field;
@@ -253,6 +260,7 @@ void run_analyse(const Options& o, const Globals& g) {
                  : "note: the first-order reading assumes delta-nu/J >= 10 for every coupling; give --partner PPM "
                    "per coupling to check it");
   if (result.search_truncated) g.note("note: the search stopped at its limit; rarer readings may be missing");
+  if (!stored.empty()) g.note(stored);
 
   if (o.plot.any()) {
     report::Figure fig;
@@ -303,11 +311,14 @@ void setup(CLI::App& root, Globals& g) {
                   "checks delta-nu/J and fits the spin system exactly");
   cmd->add_flag("--fit-partner-shifts", opts->fit_partner_shifts, "Let the exact fit move the partner shifts too");
   opts->plot.add_options(*cmd);
+  opts->store.add_options(*cmd);
   cmd->footer(
       "Examples:\n"
       "  vicinal multiplet analyse examples/multiplets/ddd_peaks.csv --field-mhz 400\n"
       "  vicinal multiplet analyse --peaks 1209.5,1197.7,1204.6,1192.8 --intensities 1,1,1,1\n"
       "  vicinal multiplet analyse peaks.csv --field-mhz 400 --partner 3.82 --partner 1.20\n"
+      "  vicinal multiplet analyse h3.csv --field-mhz 500 --store 'product 7' --nucleus H-3 \\\n"
+      "      --partners 'H-4a|H-4b,H-2,H-4b|H-4a' --solvent CD3OD --temperature-k 298\n"
       "Every coupling and every sum of couplings is a distance from the lowest peak, and\n"
       "all of them add up to the multiplet's width: trees built from those distances are\n"
       "checked line by line (coincident lines allowed), refined by least squares and ranked:\n"

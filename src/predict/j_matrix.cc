@@ -66,8 +66,8 @@ void fill_substituents(const OpenBabel::OBMol& mol, CouplingSpec& spec) {
   spec.karplus_substituents = structure::as_karplus(spec.substituents);
 }
 
-CouplingSpec resolve_pair(const OpenBabel::OBMol& mol, const std::vector<std::string>& names, SetMatcher& matcher, int a, int b,
-                          const std::string& set_choice) {
+CouplingSpec resolve_pair(const OpenBabel::OBMol& mol, const std::vector<std::string>& names, SetMatcher& matcher,
+                          int a, int b, const std::string& set_choice) {
   auto& m = const_cast<OpenBabel::OBMol&>(mol);
   CouplingSpec spec;
   spec.nuclei = {a, b};

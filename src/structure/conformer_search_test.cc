@@ -43,9 +43,7 @@ Chairs oxanol_chairs(const std::string& smiles) {
   for (std::size_t f = 0; f < out.e.frame_count(); ++f) {
     out.h2_h3_deg.push_back(torsion(out.e, f, h2, 2, 5, h3));
     out.ring_deg.push_back(torsion(out.e, f, 1, 2, 5, 7));
-    std::printf("DEBUG %zu E=%.3f hh=%.1f ring=%.1f\n", f, out.e.energy_kcal_mol[f], out.h2_h3_deg.back(), out.ring_deg.back());
   }
-  std::printf("DEBUG %s searched %d dup %d above %d\n", report.method.c_str(), report.searched, report.duplicates, report.above_window);
   return out;
 }
 
@@ -83,10 +81,13 @@ TEST(ConformerSearch, LooseThresholdsMergeConformers) {
 
 // Ring flips are sampled: trans-2,3-disubstituted oxane has a chair with both
 // substituents equatorial (H2 and H3 axial, H-C-C-H near 180 deg) and, after
-// the flip, one with both axial (H-C-C-H near 60 deg); the diequatorial chair
-// is the lower (common practice: substituents prefer equatorial positions).
-// In the cis isomer both chairs have H-C-C-H gauche; they differ in the sign
-// of the ring torsions (one substituent axial, the other equatorial, swapped).
+// the flip, one with both axial (H-C-C-H near 60 deg); the two chairs have
+// ring torsions of opposite sign (common practice, no source). In the cis
+// isomer both chairs have H-C-C-H gauche; they differ in the sign of the ring
+// torsions (one substituent axial, the other equatorial, swapped).
+// Not asserted: which trans chair is lower. Common practice expects the
+// diequatorial one, but MMFF94 in the gas phase (hydroxyl hydrogens not
+// searched) puts the two within a few tenths of a kcal/mol.
 TEST(ConformerSearch, RingFlipsGiveBothChairsOfAnOxane) {
   const Chairs trans = oxanol_chairs("O1[C@H](CO)[C@@H](O)CCC1");
   ASSERT_GT(trans.e.frame_count(), 1u);
@@ -94,15 +95,9 @@ TEST(ConformerSearch, RingFlipsGiveBothChairsOfAnOxane) {
   const auto gauche = [](double t) { return std::abs(t) > 35 && std::abs(t) < 85; };
   EXPECT_TRUE(std::any_of(trans.h2_h3_deg.begin(), trans.h2_h3_deg.end(), anti));
   EXPECT_TRUE(std::any_of(trans.h2_h3_deg.begin(), trans.h2_h3_deg.end(), gauche));
-  // Lowest frame is diequatorial; its ring torsion has the opposite sign to the flipped chair's.
-  EXPECT_TRUE(anti(trans.h2_h3_deg[0])) << trans.h2_h3_deg[0];
-  double lowest_diaxial = 1e9;
   for (std::size_t f = 0; f < trans.e.frame_count(); ++f)
-    if (gauche(trans.h2_h3_deg[f])) {
-      lowest_diaxial = std::min(lowest_diaxial, trans.e.energy_kcal_mol[f]);
-      EXPECT_LT(trans.ring_deg[f] * trans.ring_deg[0], 0);
-    }
-  EXPECT_GT(lowest_diaxial, trans.e.energy_kcal_mol[0]);
+    for (std::size_t g = 0; g < trans.e.frame_count(); ++g)
+      if (anti(trans.h2_h3_deg[f]) && gauche(trans.h2_h3_deg[g])) EXPECT_LT(trans.ring_deg[f] * trans.ring_deg[g], 0);
 
   const Chairs cis = oxanol_chairs("O1[C@H](CO)[C@H](O)CCC1");
   ASSERT_GT(cis.e.frame_count(), 1u);

@@ -84,4 +84,24 @@ run 2 multiplet analyse "$EX/dd_or_q_peaks.csv"; one_line_error; contains err "-
 run 2 multiplet analyse --peaks 1000,1007,1010.5; one_line_error; contains err "no first-order"
 run 2 multiplet analyse "$EX/ddd_peaks.csv" --field-mhz 400 --partner 3.0; one_line_error; contains err "partner"
 run 2 multiplet analyse --peaks 1000,1007 --intensities 1,-1; one_line_error
+
+# --store: the reading goes into the library under a stored compound, one row
+# per partner; a wrong partner count or unknown compound stores nothing.
+DEMO="$VICINAL_DATA_DIR/examples/demo"
+LIB="$WORK/store.sqlite"
+run 0 --library "$LIB" library init
+run 0 --library "$LIB" library import "$DEMO/couplings.csv"
+run 2 --library "$LIB" multiplet analyse "$DEMO/h3-peaks.csv" --field-mhz 500 --store "cyclisation product 7" \
+  --nucleus H-3 --partners 'H-2,H-4b'; one_line_error; contains err "3 couplings"
+run 2 --library "$LIB" multiplet analyse "$DEMO/h3-peaks.csv" --field-mhz 500 --store "no such compound" \
+  --nucleus H-3 --partners 'H-4a|H-4b,H-2,H-4b|H-4a'; one_line_error
+run 0 --library "$LIB" --json library show "cyclisation product 7"
+[[ $(json_get 'sum(len(s["couplings"]) for s in d["sets"])') == 5 ]] || fail "a refused store changed the library"
+run 0 --library "$LIB" multiplet analyse "$DEMO/h3-peaks.csv" --field-mhz 500 --store "cyclisation product 7" \
+  --nucleus H-3 --partners 'H-4a|H-4b,H-2,H-4b|H-4a' --solvent CD3OD --temperature-k 298
+contains err "3 coupling(s) added"
+run 0 --library "$LIB" --json library show "cyclisation product 7"
+[[ $(json_get 'sum(len(s["couplings"]) for s in d["sets"])') == 8 ]] || fail "multiplet couplings not stored"
+[[ $(json_get '[c["j_hz"] for s in d["sets"] for c in s["couplings"] if c["nuclei"] == "H-3,H-2"][0]') == 9.125 ]] \
+  || fail "stored J(H-3,H-2) is not the reading's 9.125 Hz"
 echo "multiplet: ok"
