@@ -118,7 +118,7 @@ void setup(CLI::App& root, Globals& g) {
   auto& group = command_group(root, "conformers", "Generate and inspect conformer ensembles");
   auto o = std::make_shared<GenerateOptions>();
   auto* gen = group.add_subcommand("generate", "Build conformers (MMFF94) with energies and Boltzmann weights");
-  gen->add_option("--smiles", o->smiles, "Molecule as SMILES (stereo is kept and checked)");
+  gen->add_option("--smiles", o->smiles, "Molecule as SMILES (stereo it specifies is kept and checked; unspecified centres are chosen arbitrarily)");
   gen->add_option("--structure", o->structure, "Molecule from a structure file instead");
   gen->add_option("--out", o->out, "Output SDF (energies and weights as data fields)")->required();
   gen->add_option("--temperature-k", o->search.temperature_k, "Temperature for the Boltzmann weights")
