@@ -2,9 +2,9 @@
 
 #include <gtest/gtest.h>
 
-#include "core/error_testing.h"
 #include <openbabel/generic.h>
 
+#include "core/error_testing.h"
 #include "structure/molecule_io.h"
 #include "structure/test_files.h"
 

@@ -2,10 +2,10 @@
 
 #include <gtest/gtest.h>
 
-#include "core/error_testing.h"
 #include <openbabel/atom.h>
 #include <openbabel/obiter.h>
 
+#include "core/error_testing.h"
 #include "core/error.h"
 #include "structure/molecule_io.h"
 

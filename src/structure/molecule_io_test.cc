@@ -1,22 +1,17 @@
 #include "structure/molecule_io.h"
 
 #include <gtest/gtest.h>
+
 #include <openbabel/atom.h>
 
+#include "core/error_testing.h"
 #include "core/error.h"
 #include "structure/test_files.h"
 
 namespace vicinal::structure {
 namespace {
 
-std::string error_of(const std::function<void()>& f) {
-  try {
-    f();
-  } catch (const Error& e) {
-    return e.one_line();
-  }
-  return "no error";
-}
+using vicinal::testing::error_of;
 
 TEST(MoleculeIo, SmilesGetsHydrogensAndCheckedStereo) {
   ReadNotes notes;
