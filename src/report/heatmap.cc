@@ -12,6 +12,7 @@
 #include "core/atomic_file.h"
 #include "core/error.h"
 #include "report/axis_ticks.h"
+#include "report/cairo_handles.h"
 #include "report/plot_text.h"
 
 namespace vicinal::report {
@@ -39,20 +40,7 @@ Rgb colour_at(double t) {
           kScale[i].b + f * (kScale[i + 1].b - kScale[i].b)};
 }
 
-struct SurfaceDeleter {
-  void operator()(cairo_surface_t* s) const { cairo_surface_destroy(s); }
-};
-struct ContextDeleter {
-  void operator()(cairo_t* c) const { cairo_destroy(c); }
-};
-using Surface = std::unique_ptr<cairo_surface_t, SurfaceDeleter>;
-using Context = std::unique_ptr<cairo_t, ContextDeleter>;
-
-void check(cairo_status_t status, const std::string& where) {
-  if (status != CAIRO_STATUS_SUCCESS)
-    throw Error(fmt::format("cannot draw the heat map: {}", cairo_status_to_string(status)), {where},
-                "check free space and permissions of the output folder");
-}
+void check(cairo_status_t status, const std::string& where) { check_cairo(status, where, "the heat map"); }
 
 void validate(const HeatMap& m) {
   if (m.x.size() < 2 || m.y.size() < 2 || m.value.size() != m.x.size() * m.y.size())

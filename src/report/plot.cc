@@ -16,6 +16,7 @@
 #include "core/atomic_file.h"
 #include "core/error.h"
 #include "report/axis_ticks.h"
+#include "report/cairo_handles.h"
 #include "report/plot_text.h"
 
 namespace vicinal::report {
@@ -618,20 +619,7 @@ void draw(cairo_t* cr, PlotText& text, const Figure& figure) {
               VAlign::Top);
 }
 
-struct SurfaceDeleter {
-  void operator()(cairo_surface_t* s) const { cairo_surface_destroy(s); }
-};
-struct ContextDeleter {
-  void operator()(cairo_t* c) const { cairo_destroy(c); }
-};
-using Surface = std::unique_ptr<cairo_surface_t, SurfaceDeleter>;
-using Context = std::unique_ptr<cairo_t, ContextDeleter>;
-
-void check(cairo_status_t status, const std::string& where) {
-  if (status != CAIRO_STATUS_SUCCESS)
-    throw Error(fmt::format("cannot draw the figure: {}", cairo_status_to_string(status)), {where},
-                "check free space and permissions of the output folder");
-}
+void check(cairo_status_t status, const std::string& where) { check_cairo(status, where, "the figure"); }
 
 // Draws onto `surface` (units of points after `scale`) and finishes it.
 void render(cairo_surface_t* surface, const Figure& figure, double scale, std::vector<TextItem>* layer,
