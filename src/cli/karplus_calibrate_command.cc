@@ -7,9 +7,11 @@
 
 #include "calibrate/calibration_points.h"
 #include "calibrate/karplus_calibration.h"
+#include "calibrate/library_points.h"
 #include "calibrate/self_consistent.h"
 #include "calibrate/set_file.h"
 #include "cli/command.h"
+#include "cli/library_common.h"
 #include "core/error.h"
 #include "report/table.h"
 
@@ -24,6 +26,9 @@ struct Options {
   int order = 2, bootstrap_samples = 200;
   double offset_deg = NAN, loss_scale = 2.0;
   std::uint64_t seed = 1;
+  bool from_library = false;
+  library::FindQuery query;
+  double default_sigma_hz = NAN;
 };
 
 std::string num(double v, const char* f = "{:.3f}") { return std::isfinite(v) ? fmt::format(fmt::runtime(f), v) : "-"; }
@@ -36,6 +41,42 @@ std::vector<std::string> split_commas(const std::string& text) {
   while (std::getline(in, item, ','))
     if (!item.empty()) out.push_back(item);
   return out;
+}
+
+// The library filters as one readable phrase for the provenance.
+std::string describe_query(const library::FindQuery& q) {
+  std::string text = "bonds 3";
+  if (!q.nuclei.empty()) text += ", nuclei " + q.nuclei;
+  if (!q.smarts.empty()) text += ", smarts " + q.smarts;
+  if (!q.name.empty()) text += ", name " + q.name;
+  return text;
+}
+
+// The pairs and a description of where they came from: the CSV, or the
+// library (path and query), with a note per coupling left out.
+struct Input {
+  std::vector<CalibrationPoint> points;
+  std::string description;
+  Json library_points = nullptr;
+};
+
+Input read_input(const Options& o, const Globals& g) {
+  if (!o.from_library) return {read_calibration_points(o.points), o.points};
+  if (std::isfinite(o.default_sigma_hz) && !(o.default_sigma_hz > 0))
+    throw Error("the default sigma must be positive", Location::field_in("", "--default-sigma-hz"));
+  auto lib = open_library(g);
+  const auto sigma = std::isfinite(o.default_sigma_hz) ? std::optional<double>(o.default_sigma_hz) : std::nullopt;
+  LibraryPoints found = points_from_library(lib->db(), o.query, sigma, lib->path());
+  for (const auto& why : found.skipped) g.note("skipped " + why);
+  Input in{std::move(found.points), fmt::format("library {} (query: {})", lib->path(), describe_query(o.query)),
+           Json::array()};
+  for (std::size_t i = 0; i < in.points.size(); ++i) {
+    const auto& at = found.origins[i];
+    in.library_points.push_back({{"compound", at.compound}, {"nuclei", at.nuclei}, {"path", at.path},
+                                 {"j_hz", in.points[i].j_hz}, {"sigma_hz", in.points[i].sigma_hz},
+                                 {"sigma_defaulted", at.sigma_defaulted}, {"dihedral_deg", in.points[i].dihedral_deg}});
+  }
+  return in;
 }
 
 // Published sets to judge on the same data: those named, or every shipped set
@@ -64,14 +105,15 @@ void calibrate_points(const Options& o, const Globals& g) {
   copt.offset_deg = shape.offset_deg;
   if (!(o.loss_scale > 0)) throw Error("the loss scale must be positive", Location::field_in("", "--loss-scale"));
 
-  const auto points = read_calibration_points(o.points);
+  const Input in = read_input(o, g);
+  const auto& points = in.points;
   const Calibration fit = vicinal::calibrate::calibrate(points, copt);
   auto progress = g.progress();
   progress->start("bootstrap", 1);
   const BootstrapIntervals boot = bootstrap(points, copt, o.bootstrap_samples, o.seed);
   progress->finish();
 
-  Json doc = {{"input", o.points}, {"form", karplus::form_name(copt.form)}, {"offset_deg", copt.offset_deg},
+  Json doc = {{"input", in.description}, {"form", karplus::form_name(copt.form)}, {"offset_deg", copt.offset_deg},
               {"loss", loss_name(copt.loss)}, {"loss_scale_sigma", copt.loss_scale}, {"n", fit.stats.n},
               {"coefficients", Json::array()},
               {"statistics", {{"chi2", fit.stats.chi2}, {"rmsd_hz", fit.stats.rmsd_hz},
@@ -96,6 +138,7 @@ void calibrate_points(const Options& o, const Globals& g) {
     tj.add_row({set->id, "0", num(s.rmsd_hz), num(s.chi2 / s.n), num(s.aic, "{:.1f}"), num(s.bic, "{:.1f}")});
   }
 
+  if (!in.library_points.is_null()) doc["points"] = in.library_points;
   std::string written;
   if (!o.id.empty()) {
     NewSet set = shape;
@@ -105,7 +148,7 @@ void calibrate_points(const Options& o, const Globals& g) {
     set.names = fit.names;
     set.coefficients = fit.coefficients;
     set.rms_hz = fit.stats.rmsd_hz;
-    set.table = fmt::format("calibrated with vicinal karplus calibrate from {}", o.points);
+    set.table = fmt::format("calibrated with vicinal karplus calibrate from {}", in.description);
     std::string intervals;
     for (std::size_t i = 0; i < fit.names.size(); ++i)
       intervals += fmt::format("{} [{:.3f}, {:.3f}]; ", fit.names[i], boot.low[i], boot.high[i]);
@@ -113,7 +156,7 @@ void calibrate_points(const Options& o, const Globals& g) {
         "Provenance: input {}; written {}; {} points; form {}, offset {} deg; loss {} (scale {} sigma); "
         "chi2 {:.3f}, reduced chi2 {}, RMSD {:.3f} Hz, AIC {:.2f}, BIC {:.2f}; 95 % bootstrap intervals ({} resamples, "
         "seed {}): {}command: {}",
-        o.points, utc_now(), fit.stats.n, karplus::form_name(copt.form), copt.offset_deg, loss_name(copt.loss),
+        in.description, utc_now(), fit.stats.n, karplus::form_name(copt.form), copt.offset_deg, loss_name(copt.loss),
         copt.loss_scale, fit.stats.chi2, num(fit.stats.reduced_chi2), fit.stats.rmsd_hz, fit.stats.aic, fit.stats.bic,
         boot.samples, boot.seed, intervals, g.command_line);
     const auto path = o.out.empty() ? default_set_path(o.id) : std::filesystem::path(o.out);
@@ -124,7 +167,7 @@ void calibrate_points(const Options& o, const Globals& g) {
   }
   if (g.json) return g.print_json(doc);
   std::string text = fmt::format("Calibration of the {} form (offset {} deg) on {} points from {}, {} loss\n\n",
-                                 karplus::form_name(copt.form), copt.offset_deg, fit.stats.n, o.points, loss_name(copt.loss));
+                                 karplus::form_name(copt.form), copt.offset_deg, fit.stats.n, in.description, loss_name(copt.loss));
   text += tc.render();
   text += fmt::format("Bootstrap: {} resamples of the points, seed {}.\n\n", boot.samples, boot.seed);
   text += "On the same data (published sets are not fitted here, so k = 0 and reduced chi^2 = chi^2 / n):\n";
@@ -188,7 +231,20 @@ void setup(CLI::App& root, Globals& g) {
   auto* sites = c->add_option("--sites", o->sites,
                               "CSV with columns site, type (a three-term set id), j_hz, sigma_hz[, start_deg]: "
                               "self-consistent fit of coefficients and one angle per site");
+  auto* from_library = c->add_flag("--from-library", o->from_library,
+                                   "Take every 3-bond coupling the filters find in the library (--library), with the "
+                                   "dihedral along its stored path measured on the compound's stored 3D structure; "
+                                   "stereo-unassigned couplings are skipped with a note");
   points->excludes(sites);
+  from_library->excludes(points)->excludes(sites);
+  c->add_option("--nuclei", o->query.nuclei, "With --from-library: coupled nuclei, e.g. H,H or 1H,13C")->needs(from_library);
+  c->add_option("--smarts", o->query.smarts, "With --from-library: substructure the compound must contain")
+      ->needs(from_library);
+  c->add_option("--name", o->query.name, "With --from-library: part of the compound name (any case)")->needs(from_library);
+  c->add_option("--default-sigma-hz", o->default_sigma_hz,
+                "With --from-library: sigma for couplings stored without one (no default: without this option "
+                "such couplings are refused)")
+      ->needs(from_library);
   c->add_option("--form", o->form, "three-term or fourier")->capture_default_str();
   c->add_option("--order", o->order, "Order of the Fourier series")->capture_default_str();
   c->add_option("--like", o->like, "Copy nuclei, coupling, atom pattern and offset from this set");
@@ -207,10 +263,11 @@ void setup(CLI::App& root, Globals& g) {
       "Example: vicinal karplus calibrate --points my-pairs.csv --like hh-karplus-1963 --id hh-my-lab --out hh-my-lab.json\n"
       "Put saved sets in $VICINAL_KARPLUS_DIR and every command finds them by id.\n"
       "Pairs must cover the angle range: coefficients from a narrow range are extrapolations.\n"
-      "Coupling-library pairs are not read yet; export them to CSV first.");
+      "From the library: vicinal karplus calibrate --from-library --nuclei H,H --smarts '[H]C-C[H]' --default-sigma-hz 0.5");
   c->callback([o, points, sites, &g] {
-    if (points->count() == 0 && sites->count() == 0)
-      throw Error("nothing to calibrate on", Location::field_in("", "--points"), "give --points FILE or --sites FILE");
+    if (points->count() == 0 && sites->count() == 0 && !o->from_library)
+      throw Error("nothing to calibrate on", Location::field_in("", "--points"),
+                  "give --points FILE, --sites FILE or --from-library");
     if (!o->sites.empty()) calibrate_sites(*o, g);
     else calibrate_points(*o, g);
   });

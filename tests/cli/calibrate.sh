@@ -64,4 +64,80 @@ run 2 karplus calibrate --points pairs.csv --id "Bad Id" --out x.json; one_line_
 [[ ! -e x.json ]] || fail "a set with a bad id was written"
 printf "j_hz,sigma_hz,dihedral_deg\n5,0.3,60\n6,0.3,70\n" >few.csv
 run 2 karplus calibrate --points few.csv; one_line_error
+
+# From the library: couplings of compounds imported from SMILES (the importer
+# builds 3D), dihedrals measured along each stored path. Values invented.
+# Ethanol CCO: C1 C2 O3, H 4-6 on C1, 7-8 on C2, OH 9. Propanal CCC=O: C1 C2 C3
+# O4, H 5-7 on C1, 8-9 on C2, 10 on C3. 1-Propanol OCCC: O1 C2 C3 C4, OH 5,
+# H 6-7 on C2, 8-9 on C3, 10-12 on C4.
+LIB=(--library "$WORK/cal.sqlite")
+cat > lib.csv <<'CSV'
+compound,smiles,measurement,solvent,temperature_k,field_mhz,source,nuclei,j_hz,sigma_hz,note
+ethanol,CCO,run 1,CDCl3,298,400,invented,"4,7",7.0,0.1,3 bonds
+ethanol,CCO,run 1,CDCl3,298,400,invented,"7,9",5.1,0.2,3 bonds
+ethanol,CCO,run 1,CDCl3,298,400,invented,"4,5",-12.0,0.2,2 bonds: left out
+propanal,CCC=O,run 1,CDCl3,298,400,invented,"5,8",7.4,0.1,3 bonds
+propanal,CCC=O,run 1,CDCl3,298,400,invented,"8,10",1.4,0.1,3 bonds
+propanal,CCC=O,run 1,CDCl3,298,400,invented,"1,10",2.0,0.2,C-H: left out by --nuclei
+propanal,CCC=O,run 1,CDCl3,298,400,invented,"6|7,9",6.9,0.2,stereo-unassigned: skipped
+propanol,OCCC,run 1,CDCl3,298,400,invented,"5,6",5.6,0.2,3 bonds
+propanol,OCCC,run 1,CDCl3,298,400,invented,"6,8",6.8,0.2,3 bonds
+propanol,OCCC,run 1,CDCl3,298,400,invented,"8,10",7.3,,3 bonds without sigma
+CSV
+run 0 "${LIB[@]}" library import lib.csv
+# A coupling without sigma is refused unless a default is given.
+run 2 "${LIB[@]}" karplus calibrate --from-library --nuclei H,H; one_line_error; contains err "--default-sigma-hz"
+run 0 "${LIB[@]}" --json karplus calibrate --from-library --nuclei H,H --default-sigma-hz 0.3 --bootstrap 20
+contains err "stereo-unassigned"
+json_get 'd["n"] == 7 and len(d["points"]) == 7' | grep -qx True || fail "7 library points expected"
+json_get 'sum(p["sigma_defaulted"] for p in d["points"]) == 1' | grep -qx True || fail "one defaulted sigma expected"
+cp out all-points.json
+# The SMARTS filter keeps the two alcohols (2 + 3 couplings).
+run 0 "${LIB[@]}" --json karplus calibrate --from-library --smarts '[OX2H]' --default-sigma-hz 0.3 --bootstrap 20
+[[ $(json_get 'd["n"]') == 5 ]] || fail "5 alcohol points expected"
+
+# The dihedral of ethanol H4-C1-C2-H7 against RDKit on the exported structure,
+# with RDKit finding the path itself. Source: RDKit (rdMolTransforms.GetDihedralDeg).
+run 0 "${LIB[@]}" library export all.sdf
+/usr/bin/python3 - <<'PY' || fail "dihedral differs from RDKit"
+import json
+from rdkit import Chem
+from rdkit.Chem import rdMolTransforms
+mol = next(m for m in Chem.SDMolSupplier("all.sdf", removeHs=False)
+           if m is not None and json.loads(m.GetProp("vicinal_compound"))["name"] == "ethanol")
+path = list(Chem.GetShortestPath(mol, 3, 6))
+assert len(path) == 4, path
+rdkit_deg = rdMolTransforms.GetDihedralDeg(mol.GetConformer(), *path)
+points = json.load(open("all-points.json"))["points"]
+ours = [p for p in points if p["compound"] == "ethanol" and {p["path"][0], p["path"][-1]} == {4, 7}]
+assert len(ours) == 1, ours
+diff = (ours[0]["dihedral_deg"] - rdkit_deg + 180) % 360 - 180
+print(f"ethanol H4..H7: vicinal {ours[0]['dihedral_deg']:.3f}, RDKit {rdkit_deg:.3f}")
+assert abs(diff) < 0.01, diff
+PY
+
+# Set file from the library: the provenance names the library, query and points.
+run 0 "${LIB[@]}" karplus calibrate --from-library --nuclei H,H --default-sigma-hz 0.3 --bootstrap 20 \
+  --id hh-from-lib --out lib-set.json
+contains lib-set.json "Provenance: input library $WORK/cal.sqlite (query: bonds 3, nuclei H,H)"
+contains lib-set.json "; 7 points;"
+
+# Errors: nothing matches; a compound stored without 3D coordinates (every z = 0).
+run 2 "${LIB[@]}" karplus calibrate --from-library --name nothing-like-this; one_line_error
+contains err "no 3-bond coupling"
+/usr/bin/python3 - <<'PY'
+import shutil, sqlite3
+shutil.copy("cal.sqlite", "flat.sqlite")
+db = sqlite3.connect("flat.sqlite")
+for cid, text in db.execute("SELECT id, molfile FROM compounds").fetchall():
+    lines = text.split("\n")
+    n = int(lines[3][:3])
+    for i in range(4, 4 + n):  # V2000 atom lines: z is columns 21-30
+        lines[i] = lines[i][:20] + "    0.0000" + lines[i][30:]
+    db.execute("UPDATE compounds SET molfile = ? WHERE id = ?", ("\n".join(lines), cid))
+db.commit()
+PY
+run 2 --library "$WORK/flat.sqlite" karplus calibrate --from-library --nuclei H,H --default-sigma-hz 0.3
+one_line_error; contains err "no 3D coordinates"
+run 2 karplus calibrate --from-library --points pairs.csv; one_line_error
 echo "calibrate: ok"
