@@ -122,6 +122,20 @@ Figure karplus_figure(const Json& doc, const Json& c) {
   return f;
 }
 
+// One bar series per candidate: its value of `key` for each coupling, in order.
+void add_candidate_bars(Figure& f, const Json& doc, const char* key) {
+  int color = 4;
+  for (const auto& cand : doc.at("candidates")) {
+    Series s{.label = str(cand, "name"), .style = Series::Style::Bars, .color = color++};
+    const Json& rows = member(cand, "couplings");
+    for (std::size_t r = 0; r < rows.size(); ++r) {
+      s.x.push_back(static_cast<double>(r + 1));
+      s.y.push_back(num(rows[r], key));
+    }
+    f.series.push_back(std::move(s));
+  }
+}
+
 Figure couplings_figure(const Json& doc) {
   Figure f;
   f.title = "Observed and back-calculated couplings";
@@ -139,16 +153,7 @@ Figure couplings_figure(const Json& doc) {
     obs.error_high.push_back(j + s);
   }
   f.series.push_back(std::move(obs));
-  int color = 4;
-  for (const auto& cand : doc.at("candidates")) {
-    Series s{.label = str(cand, "name"), .style = Series::Style::Bars, .color = color++};
-    const Json& rows = member(cand, "couplings");
-    for (std::size_t r = 0; r < rows.size(); ++r) {
-      s.x.push_back(static_cast<double>(r + 1));
-      s.y.push_back(num(rows[r], "predicted_hz"));
-    }
-    f.series.push_back(std::move(s));
-  }
+  add_candidate_bars(f, doc, "predicted_hz");
   f.footnote = "Back-calculated: ensemble averages at the populations behind each candidate's score.";
   return f;
 }
@@ -163,16 +168,7 @@ Figure contributions_figure(const Json& doc) {
     f.x_ticks.push_back(static_cast<double>(r + 1));
     f.x_tick_labels.push_back(str(couplings[r], "nuclei"));
   }
-  int color = 4;
-  for (const auto& cand : doc.at("candidates")) {
-    Series s{.label = str(cand, "name"), .style = Series::Style::Bars, .color = color++};
-    const Json& rows = member(cand, "couplings");
-    for (std::size_t r = 0; r < rows.size(); ++r) {
-      s.x.push_back(static_cast<double>(r + 1));
-      s.y.push_back(num(rows[r], "contribution"));
-    }
-    f.series.push_back(std::move(s));
-  }
+  add_candidate_bars(f, doc, "contribution");
   f.footnote = "Each bar is ((J obs - J calc) / s)² for that coupling; lower is better.";
   return f;
 }
