@@ -9,6 +9,7 @@
 #include <numbers>
 
 #include "core/error.h"
+#include "fit/ceres_options.h"
 #include "fit/linear_fit.h"
 
 namespace vicinal::fit {
@@ -116,12 +117,7 @@ std::vector<double> start_u(const PopulationProblem& data, const StateGeometry& 
 }
 
 void solve(ceres::Problem& problem, NonlinearFit& fit, const char* model) {
-  ceres::Solver::Options options;
-  options.linear_solver_type = ceres::DENSE_QR;
-  options.max_num_iterations = 500;
-  options.function_tolerance = 1e-12;
-  options.gradient_tolerance = 1e-12;
-  options.parameter_tolerance = 1e-12;
+  const ceres::Solver::Options options = tight_solver_options();
   ceres::Solver::Summary summary;
   ceres::Solve(options, &problem, &summary);
   fit.iterations = static_cast<int>(summary.iterations.size());

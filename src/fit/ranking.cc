@@ -8,6 +8,7 @@
 #include <cmath>
 
 #include "core/error.h"
+#include "fit/ceres_options.h"
 #include "fit/linear_fit.h"
 
 namespace vicinal::fit {
@@ -84,12 +85,7 @@ struct SphereCouplingResidual {
 };
 
 void run_ceres(ceres::Problem& problem, const std::string& what) {
-  ceres::Solver::Options options;
-  options.linear_solver_type = ceres::DENSE_QR;
-  options.max_num_iterations = 500;
-  options.function_tolerance = 1e-12;
-  options.gradient_tolerance = 1e-12;
-  options.parameter_tolerance = 1e-12;
+  const ceres::Solver::Options options = tight_solver_options();
   ceres::Solver::Summary summary;
   ceres::Solve(options, &problem, &summary);
   if (summary.termination_type != ceres::CONVERGENCE)

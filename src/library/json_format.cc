@@ -175,6 +175,20 @@ void check_inchikey(const Json& compound, const CompoundBuilder& builder, const 
                 Location::field_in(source, context + ".inchikey"), "check that the structure is the intended compound");
 }
 
+// The part of a compound record that JSON and SDF share: name, identity check,
+// notes and measurement sets, once the structure is known.
+void read_compound(const Json& c, const StructureSpec& spec, const std::string& path, const std::string& context,
+                   const ImportOptions& options, ImportResult& result) {
+  const std::string name = text_or(c, "name", path, context);
+  if (name.empty()) throw Error("the compound has no name", Location::field_in(path, context + ".name"));
+  CompoundBuilder builder(name, spec, Location::field_in(path, context));
+  check_inchikey(c, builder, path, context);
+  Entry entry{builder.record(), {}};
+  entry.compound.notes = notes_of(c, path, context);
+  read_sets(c, builder, entry, path, context, options, result);
+  result.entries.push_back(std::move(entry));
+}
+
 }  // namespace
 
 ImportResult read_json(const std::string& path, const ImportOptions& options) {
@@ -210,14 +224,7 @@ ImportResult read_json(const std::string& path, const ImportOptions& options) {
       if (const std::string labels = text_or(c, "labels_file", path, context); !labels.empty())
         spec.labels_file = std::filesystem::path(labels).is_relative() ? (folder / labels).lexically_normal().string()
                                                                        : labels;
-      const std::string name = text_or(c, "name", path, context);
-      if (name.empty()) throw Error("the compound has no name", Location::field_in(path, context + ".name"));
-      CompoundBuilder builder(name, spec, Location::field_in(path, context));
-      check_inchikey(c, builder, path, context);
-      Entry entry{builder.record(), {}};
-      entry.compound.notes = notes_of(c, path, context);
-      read_sets(c, builder, entry, path, context, options, result);
-      result.entries.push_back(std::move(entry));
+      read_compound(c, spec, path, context, options, result);
     } catch (const Error& e) {
       if (!options.skip_bad) throw;
       result.rejects.push_back({fmt::format("{}: {}", path, context), e.one_line()});
@@ -258,14 +265,7 @@ ImportResult read_sdf(const std::string& path, const ImportOptions& options) {
       const Json c = parse_json(data->GetValue(), fmt::format("{} ({})", path, context));
       check_keys(c, kCompoundKeys, path, context);
       StructureSpec spec{StructureSpec::Kind::Molfile, record, {}};
-      const std::string name = text_or(c, "name", path, context);
-      if (name.empty()) throw Error("the compound has no name", Location::field_in(path, context + ".name"));
-      CompoundBuilder builder(name, spec, Location::field_in(path, context));
-      check_inchikey(c, builder, path, context);
-      Entry entry{builder.record(), {}};
-      entry.compound.notes = notes_of(c, path, context);
-      read_sets(c, builder, entry, path, context, options, result);
-      result.entries.push_back(std::move(entry));
+      read_compound(c, spec, path, context, options, result);
     } catch (const Error& e) {
       if (!options.skip_bad) throw;
       result.rejects.push_back({fmt::format("{}: {}", path, context), e.one_line()});
