@@ -13,6 +13,7 @@
 #include <numeric>
 
 #include "core/error.h"
+#include "structure/force_field_minimiser.h"
 #include "structure/openbabel_log.h"
 #include "structure/rotamers.h"
 
@@ -23,8 +24,8 @@ namespace {
 // Up to this many rotatable bonds every combination of their torsion values is
 // tried; beyond it a weighted random search samples them.
 constexpr int kSystematicRotorLimit = 5;
-// Short minimisation inside the rotor search; every kept candidate is then
-// minimised fully (options.minimise_steps).
+// Short minimisation inside the rotor search and under ring-flip restraints;
+// every candidate is then minimised fully (options.minimise_iterations).
 constexpr int kSearchGeometrySteps = 50;
 // Ring flips are tried for every subset of at most this many flexible rings
 // (2^n - 1 flipped starting structures).
@@ -34,6 +35,7 @@ constexpr int kFlippedRingLimit = 3;
 constexpr unsigned kSmallestFlexibleRing = 4, kLargestFlexibleRing = 8;
 
 OpenBabel::OBForceField& mmff94_for(OpenBabel::OBMol& mol) {
+  use_one_openbabel_thread();
   OpenBabel::OBForceField* ff = OpenBabel::OBForceField::FindForceField("MMFF94");
   if (!ff) throw Error("the MMFF94 force field is not available in this Open Babel installation");
   ff->SetLogLevel(OBFF_LOGLVL_NONE);
@@ -166,12 +168,11 @@ std::vector<std::vector<double>> ring_starting_structures(
         for (const auto& t : rings[r]) restraints.AddTorsionConstraint(t[0], t[1], t[2], t[3], -work.GetTorsion(t[0], t[1], t[2], t[3]));
     OpenBabel::OBForceField& ff = mmff94_for(work);
     ff.Setup(work, restraints);
-    ff.ConjugateGradients(options.minimise_steps, 1e-6);
+    ff.ConjugateGradients(options.minimise_iterations, 1e-6);
     ff.GetCoordinates(work);  // Setup below restarts from the molecule's coordinates
     OpenBabel::OBFFConstraints none;
     ff.Setup(work, none);
-    ff.ConjugateGradients(options.minimise_steps, 1e-6);
-    ff.GetCoordinates(work);
+    minimise_fully(ff, work, options.minimise_iterations);
     if (tetrahedral_signs(work) != signs) continue;
     const std::vector<double> xyz = coordinates_of(work);
     const bool seen = std::any_of(starts.begin(), starts.end(), [&](const std::vector<double>& s) {
@@ -213,9 +214,7 @@ Ensemble generate_conformers(const OpenBabel::OBMol& input, const ConformerOptio
   LogCapture log;
 
   OpenBabel::OBMol mol(input);
-  OpenBabel::OBForceField& ff = mmff94_for(mol);
-  ff.ConjugateGradients(options.minimise_steps, 1e-6);
-  ff.GetCoordinates(mol);
+  minimise_fully(mmff94_for(mol), mol, options.minimise_iterations);
 
   // Ring shapes first: every starting structure then gets the rotor search.
   const auto rings = flexible_ring_torsions(mol);
@@ -274,10 +273,8 @@ Ensemble generate_conformers(const OpenBabel::OBMol& input, const ConformerOptio
   OpenBabel::OBMol work(input);
   for (std::size_t c = 0; c < candidates.size(); ++c) {
     work.SetCoordinates(candidates[c].data());
-    OpenBabel::OBForceField& f = mmff94_for(work);
-    f.ConjugateGradients(options.minimise_steps, 1e-6);
-    f.GetCoordinates(work);
-    minimised.push_back({coordinates_of(work), f.Energy(false)});
+    const double energy = minimise_fully(mmff94_for(work), work, options.minimise_iterations);
+    minimised.push_back({coordinates_of(work), energy});
     progress.advance(c + 1);
   }
   progress.finish();

@@ -25,7 +25,7 @@ struct ConformerOptions {
   double rmsd_angstrom = 0.5;
   double torsion_deg = 30.0;
   double energy_window_kcal_mol = 10.0;  // drop conformers this far above the minimum
-  int minimise_steps = 500;
+  int minimise_iterations = 2000;  // per full minimisation (L-BFGS); most converge in a few hundred
   Progress* progress = nullptr;
 };
 

@@ -49,6 +49,9 @@ Chairs oxanol_chairs(const std::string& smiles) {
 
 // Butane has one anti and two mirror-image gauche conformers, the gauche ones
 // higher by roughly 0.6-1 kcal/mol (from memory; MMFF94 gives about 0.8).
+// Mirror images have equal energies once fully minimised; Open Babel's own
+// conjugate gradients left them up to 0.24 kcal/mol apart, depending on the
+// random 3D build.
 TEST(ConformerSearch, ButaneGivesAntiAndBothGauche) {
   const OpenBabel::OBMol mol = molecule_from_smiles("CCCC", true);
   ConformerReport report;
@@ -61,7 +64,7 @@ TEST(ConformerSearch, ButaneGivesAntiAndBothGauche) {
   const double gap = e.energy_kcal_mol[1] - e.energy_kcal_mol[0];
   EXPECT_GT(gap, 0.4);
   EXPECT_LT(gap, 1.3);
-  EXPECT_NEAR(e.energy_kcal_mol[1], e.energy_kcal_mol[2], 0.05);
+  EXPECT_NEAR(e.energy_kcal_mol[1], e.energy_kcal_mol[2], 1e-4);
   double sum = 0;
   for (double w : e.weight) sum += w;
   EXPECT_NEAR(sum, 1.0, 1e-12);

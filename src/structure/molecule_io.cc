@@ -18,6 +18,7 @@
 
 #include "core/error.h"
 #include "core/parse.h"
+#include "structure/force_field_minimiser.h"
 #include "structure/molecule_format.h"
 #include "structure/openbabel_log.h"
 
@@ -71,14 +72,14 @@ void minimise_mmff94(OpenBabel::OBMol& mol, int steps) {
     ff = OpenBabel::OBForceField::FindForceField("UFF");
     if (!ff || !ff->Setup(mol)) return;  // keep the builder's geometry
   }
-  ff->ConjugateGradients(steps, 1e-4);
-  ff->GetCoordinates(mol);
+  minimise_fully(*ff, mol, steps);
 }
 
 // One way of making coordinates; `attempt` picks the method so that a retry
 // does something different (the builder, then Open Babel's gen3D at two
 // thoroughness levels, which adds a rotor search).
 bool build_once(OpenBabel::OBMol& mol, int attempt) {
+  use_one_openbabel_thread();
   if (attempt == 0) {
     OpenBabel::OBBuilder builder;
     if (!builder.Build(mol, false)) return false;
