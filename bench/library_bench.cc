@@ -1,8 +1,10 @@
 // Library import (CSV read + store in one transaction into a fresh file) and
 // lookup by compound name, by number of coupling rows (straight-chain
-// alcohols, see write_rows).
+// alcohols from SMILES, see write_rows: mostly the 3D build of each new
+// compound), and one compound's couplings from a 1,000,000-coupling library.
 #include <benchmark/benchmark.h>
 
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <string>
@@ -77,10 +79,33 @@ void find_by_name(benchmark::State& state) {
   fs::remove(csv);
 }
 
+// One compound's couplings from a large library (what `library show` reads):
+// the library compare.py built by importing the 1,000,000-coupling file,
+// named by VICINAL_BENCH_LIBRARY, and one compound's name in
+// VICINAL_BENCH_COMPOUND. Skipped when they are not set.
+void lookup_compound(benchmark::State& state) {
+  const char* path = std::getenv("VICINAL_BENCH_LIBRARY");
+  const char* name = std::getenv("VICINAL_BENCH_COMPOUND");
+  if (!path || !name) {
+    state.SkipWithError("VICINAL_BENCH_LIBRARY and VICINAL_BENCH_COMPOUND not set");
+    return;
+  }
+  Library library(path);
+  std::size_t couplings = 0;
+  for (auto _ : state) {
+    const auto entries = library.read_entries({find_compound(library.db(), name)});
+    couplings = 0;
+    for (const auto& s : entries.at(0).sets) couplings += s.couplings.size();
+    benchmark::DoNotOptimize(couplings);
+  }
+  state.counters["couplings"] = static_cast<double>(couplings);
+}
+
 }  // namespace
 
 // Sizes are small because import builds 3D coordinates for every new compound
 // (tens of ms each, more with Open Babel OpenMP threads spinning): see latest.md.
 BENCHMARK(import_csv)->Arg(30)->Arg(100)->Arg(300)->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK(find_by_name)->Arg(30)->Arg(100)->Arg(300)->Unit(benchmark::kMillisecond);
+BENCHMARK(lookup_compound)->Unit(benchmark::kMillisecond);
 BENCHMARK_MAIN();

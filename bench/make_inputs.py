@@ -6,7 +6,8 @@ peptide built and embedded by RDKit, with hydrogens, replicated on a grid) and
 Gaussian. Backbone amide H is named H and alpha H is named HA (HA2/HA3 for Gly)
 as in the PDB convention, so MDTraj finds the HN-HA couplings.
 fit problem: conformers x couplings J matrix and measured couplings.
-library rows: the couplings CSV of `vicinal library import`.
+library import: a few hundred compounds given once by 3D SDF files, then many
+couplings per compound (the CSV of `vicinal library import`).
 """
 import csv
 import numpy as np
@@ -108,41 +109,97 @@ def write_fit_problem(matrix_path, couplings_path, conformers, couplings, seed=6
     return j, j_obs, np.full(couplings, 0.5)
 
 
-# Straight chains C_nX: n carbons then one end atom X; hydrogens on X.
-END_GROUPS = [("O", 1), ("N", 2), ("S", 1), ("Cl", 0), ("F", 0)]
+# The realistic library import: a few hundred compounds, each given once by a
+# 3D structure file (SDF written here by RDKit, explicit hydrogens, so the
+# import builds nothing), then many couplings per compound over many
+# measurement sets (a temperature series in a few solvents), as a group that
+# measures the same compounds again and again would have them.
+BULK_ENDS = ["O", "N", "S", "Cl", "F", "Br", "OC"]
+BULK_SOLVENTS = ["CDCl3", "DMSO-d6", "CD3OD", "D2O"]
 
 
-def library_rows(rows):
-    """Straight-chain C2..C30 alcohols, amines, thiols, chlorides and fluorides
-    (no symmetry, so every CH-CH pair along the chain is a distinct coupling),
-    one H-H coupling per neighbouring pair of carbons, one measurement set per
-    pass over the compounds. Hydrogens are numbered after the heavy atoms in
-    atom order. The SMILES is given on the first row of each compound block only."""
+def bulk_compounds(count):
+    """X-(CH2)n-Y chains, X != Y (no graph symmetry), n = 2..25: SMILES list."""
     out = []
-    measurement = 0
-    while True:
-        for end, _ in END_GROUPS:
-            for n in range(2, 31):
-                first_h = {0: n + 2}
-                for c in range(1, n):
-                    first_h[c] = first_h[c - 1] + (3 if c == 1 else 2)
-                for c in range(n - 1):
-                    if len(out) == rows:
-                        return out
-                    out.append((f"C{n}{end} chain", "C" * n + end if c == 0 else "", f"run {measurement}",
-                                "CDCl3", 280 + measurement, 400, "generated", f"{first_h[c]},{first_h[c + 1]}",
-                                round(6.5 + 0.01 * ((c + measurement) % 50), 2), 0.1))
-        measurement += 1
+    for n in range(2, 26):
+        for i, x in enumerate(BULK_ENDS):
+            for y in BULK_ENDS[i + 1:]:
+                out.append(x + "C" * n + y)
+                if len(out) == count:
+                    return out
+    raise ValueError(f"at most {len(out)} bulk compounds")
 
 
-LIBRARY_COLUMNS = ["compound", "smiles", "measurement", "solvent", "temperature_k", "field_mhz", "source",
-                   "nuclei", "j_hz", "sigma_hz"]
+def bulk_structure(smiles, path, seed):
+    """Writes one 3D SDF record (RDKit ETKDG, fixed seed); returns the H-H
+    couplings as 1-based atom pairs: per C-C bond the first H of one carbon to
+    each H of the next (two distinct couplings), and H on X to the first H of its carbon."""
+    from rdkit import Chem
+    from rdkit.Chem import AllChem
+    mol = Chem.AddHs(Chem.MolFromSmiles(smiles))
+    params = AllChem.ETKDGv3()
+    params.randomSeed = seed
+    if AllChem.EmbedMolecule(mol, params) != 0:
+        raise RuntimeError(f"RDKit could not embed {smiles}")
+    with open(path, "w") as f:
+        f.write(Chem.MolToMolBlock(mol) + "$$$$\n")
+    hs = {a.GetIdx(): [n.GetIdx() + 1 for n in a.GetNeighbors() if n.GetSymbol() == "H"] for a in mol.GetAtoms()}
+    pairs = []
+    for b in mol.GetBonds():
+        u, v = b.GetBeginAtom(), b.GetEndAtom()
+        if not hs[u.GetIdx()] or not hs[v.GetIdx()] or u.GetSymbol() == "H" or v.GetSymbol() == "H":
+            continue
+        if u.GetSymbol() == "C" and v.GetSymbol() == "C":
+            pairs += [(hs[u.GetIdx()][0], h) for h in hs[v.GetIdx()][:2]]
+        else:  # H on a heteroatom next to a CH2
+            pairs.append((hs[u.GetIdx()][0], hs[v.GetIdx()][0]))
+    return pairs
 
 
-def write_library_csv(path, rows):
-    data = library_rows(rows)
+BULK_COLUMNS = ["compound", "structure", "measurement", "solvent", "temperature_k", "field_mhz", "source", "nuclei",
+                "j_hz", "sigma_hz"]
+
+
+def write_library_bulk(folder, compounds, couplings):
+    """Writes folder/structures/*.sdf (once; reused) and folder/bulk-C-N.csv with
+    exactly `couplings` rows over `compounds` compounds, compound by compound;
+    the structure column is filled on each compound's first row only. Returns the CSV path."""
+    import os
+    smiles = bulk_compounds(compounds)
+    sdir = os.path.join(folder, "structures")
+    os.makedirs(sdir, exist_ok=True)
+    pairs = []
+    for i, s in enumerate(smiles):
+        sdf = os.path.join(sdir, f"c{i + 1:03d}.sdf")
+        pair_file = sdf + ".pairs"
+        if os.path.exists(pair_file):
+            with open(pair_file) as f:
+                pairs.append([tuple(int(v) for v in ln.split()) for ln in f])
+            continue
+        p = bulk_structure(s, sdf, seed=100 + i)
+        with open(pair_file, "w") as f:
+            f.write("".join(f"{a} {b}\n" for a, b in p))
+        pairs.append(p)
+    per_pass = sum(len(p) for p in pairs)
+    sets = -(-couplings // per_pass)  # measurement sets per compound
+    path = os.path.join(folder, f"bulk-{compounds}-{couplings}.csv")
+    if os.path.exists(path):
+        return path
+    written = 0
     with open(path, "w", newline="") as f:
         w = csv.writer(f)
-        w.writerow(LIBRARY_COLUMNS)
-        w.writerows(data)
-    return data
+        w.writerow(BULK_COLUMNS)
+        for i, p in enumerate(pairs):
+            first = True
+            for s in range(sets):
+                solvent = BULK_SOLVENTS[s % len(BULK_SOLVENTS)]
+                temperature = 240 + s // len(BULK_SOLVENTS) % 100  # 240-339 K; the name keeps sets apart
+                for k, (a, b) in enumerate(p):
+                    if written == couplings:
+                        return path
+                    w.writerow([f"bulk {i + 1} {smiles[i]}", f"structures/c{i + 1:03d}.sdf" if first else "",
+                                f"{solvent} run {s // len(BULK_SOLVENTS) + 1}", solvent, temperature, 600, "generated",
+                                f"H{a},H{b}", f"{6.0 + 0.01 * ((k * 7 + s) % 300):.2f}", "0.1"])
+                    first = False
+                    written += 1
+    return path

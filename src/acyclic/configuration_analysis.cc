@@ -32,8 +32,8 @@ std::vector<MeasuredCoupling> from_table(const CsvTable& table, const Predictor&
       if (seen.name == m.name)
         throw Error(fmt::format("coupling {} is listed twice (first on line {})", m.name, seen.line),
                     table.where(row, name_col), "give each coupling once");
-    m.j_hz = parse_double(row.fields[j_col], table.where(row, j_col));
-    m.sigma_hz = parse_double(row.fields[sigma_col], table.where(row, sigma_col));
+    m.j_hz = parse_coupling_hz(row.fields[j_col], table.where(row, j_col));
+    m.sigma_hz = parse_coupling_hz(row.fields[sigma_col], table.where(row, sigma_col));
     if (!(m.sigma_hz > 0))
       throw Error("sigma_hz must be positive", table.where(row, sigma_col), "give the uncertainty, e.g. 0.5");
     out.push_back(m);

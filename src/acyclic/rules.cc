@@ -34,6 +34,8 @@ Rules Rules::load(const std::string& id_or_path) {
   const bool is_path = id_or_path.find('/') != std::string::npos || id_or_path.ends_with(".json");
   const std::string file = is_path ? id_or_path : data_file("db/acyclic/" + id_or_path + ".json").string();
   const Json doc = read_json_file(file);
+  // Rule files are written by hand: a misspelt key must not be silently ignored.
+  json_require_keys(doc, {"id", "title", "citation", "notes", "doi", "categories", "substituent_model"}, file, "");
   Rules r;
   r.file = file;
   r.id = json_string(json_member(doc, "id", file, ""), file, "id");
@@ -46,6 +48,7 @@ Rules Rules::load(const std::string& id_or_path) {
   for (std::size_t i = 0; i < cats.size(); ++i) {
     const std::string at = fmt::format("categories[{}]", i);
     const Json& c = cats[i];
+    json_require_keys(c, {"kind", "small_hz", "large_hz", "karplus_set", "source"}, file, at);
     CategoryRule rule;
     const std::string kind = json_string(json_member(c, "kind", file, at), file, at + ".kind");
     if (kind == "3J(H,H)") rule.kind = Kind::ThreeBondHH;
@@ -66,6 +69,7 @@ Rules Rules::load(const std::string& id_or_path) {
   for (const char* name : {"X2", "X3_oxygen", "X3_carbon", "C1", "C4"}) {
     const std::string at = std::string("substituent_model.") + name;
     const Json& g = json_member(model, name, file, "substituent_model");
+    json_require_keys(g, {"element", "beta"}, file, at);
     GroupModel gm;
     gm.element = json_string(json_member(g, "element", file, at), file, at + ".element");
     const Json& beta = json_member(g, "beta", file, at);

@@ -11,7 +11,7 @@ namespace vicinal::calibrate {
 namespace {
 
 double positive_sigma(const CsvTable& t, const CsvRow& row, std::size_t col) {
-  const double s = parse_double(row.fields[col], t.where(row, col));
+  const double s = parse_coupling_hz(row.fields[col], t.where(row, col));
   if (!(s > 0)) throw Error("sigma_hz must be positive", t.where(row, col), "give the uncertainty, e.g. 0.3");
   return s;
 }
@@ -22,7 +22,7 @@ std::vector<CalibrationPoint> points_from(const CsvTable& t) {
   for (const auto& row : t.rows()) {
     CalibrationPoint p;
     p.line = row.line;
-    p.j_hz = parse_double(row.fields[j], t.where(row, j));
+    p.j_hz = parse_coupling_hz(row.fields[j], t.where(row, j));
     p.sigma_hz = positive_sigma(t, row, s);
     p.dihedral_deg = parse_double(row.fields[d], t.where(row, d));
     if (p.dihedral_deg < -360 || p.dihedral_deg > 360)
@@ -45,10 +45,12 @@ std::vector<SiteCoupling> sites_from(const CsvTable& t) {
     c.type = std::string(trim(row.fields[type]));
     if (c.site.empty()) throw Error("empty site name", t.where(row, site), "name the residue or site, e.g. A12");
     if (c.type.empty()) throw Error("empty coupling type", t.where(row, type), "give a Karplus set id");
-    c.j_hz = parse_double(row.fields[j], t.where(row, j));
+    c.j_hz = parse_coupling_hz(row.fields[j], t.where(row, j));
     c.sigma_hz = positive_sigma(t, row, s);
     if (start && !trim(row.fields[*start]).empty()) {
       c.start_deg = parse_double(row.fields[*start], t.where(row, *start));
+      if (c.start_deg < -360 || c.start_deg > 360)
+        throw Error("start_deg must lie within [-360, 360]", t.where(row, *start), "give the angle in degrees");
       c.has_start = true;
     }
     out.push_back(c);

@@ -6,7 +6,9 @@
 
 #include "acyclic/configuration_analysis.h"
 #include "cli/command.h"
+#include "cli/result_report_output.h"
 #include "core/error.h"
+#include "report/configuration_section.h"
 #include "report/table.h"
 
 namespace vicinal::cli {
@@ -16,7 +18,7 @@ namespace {
 using namespace vicinal::acyclic;
 
 struct Options {
-  std::string couplings, rules = "matsumori-1999", x3 = "carbon";
+  std::string couplings, rules = "matsumori-1999", x3 = "carbon", report;
   int show = 6;
 };
 
@@ -29,6 +31,33 @@ std::string verdict_name(Verdict v) {
   return "?";
 }
 
+// The machine-readable result (--json) and the report's document.
+Json analysis_json(const Options& o, const Predictor& predictor, const std::vector<MeasuredCoupling>& measured,
+                   const Analysis& a) {
+  Json doc = {{"couplings_file", o.couplings}, {"x3", o.x3}, {"rules", predictor.rules().id},
+              {"rules_source", predictor.rules().citation}, {"verdict", verdict_name(a.verdict)},
+              {"statement", a.statement}, {"poor_fit", a.poor_fit}, {"equally_good_margin", kEquallyGood},
+              {"pair_penalty", kPairPenalty}, {"measured", Json::array()}, {"arrangements", Json::array()},
+              {"candidates", Json::array()}};
+  for (const auto& m : measured)
+    doc["measured"].push_back({{"name", m.name}, {"j_hz", m.j_hz}, {"sigma_hz", m.sigma_hz}});
+  for (std::size_t i = 0; i < a.arrangements.size(); ++i) {
+    Json arr = {{"name", a.arrangements[i].name()}, {"short_name", a.arrangements[i].short_name()},
+                {"configuration", configuration_name(a.arrangements[i].configuration)}, {"couplings", Json::array()}};
+    for (std::size_t k = 0; k < measured.size(); ++k) {
+      const auto& p = a.predictions[i][k];
+      arr["couplings"].push_back({{"name", measured[k].name}, {"j_hz", p.j_hz}, {"tolerance_hz", p.tolerance_hz},
+                                  {"category", p.category}, {"basis", p.basis}, {"dihedral_deg", p.dihedral_deg}});
+    }
+    doc["arrangements"].push_back(arr);
+  }
+  for (const auto& c : a.candidates)
+    doc["candidates"].push_back({{"name", c.name}, {"configuration", configuration_name(c.configuration)},
+                                 {"members", c.members}, {"fraction_first", c.fraction}, {"score", c.score},
+                                 {"ranked_score", c.ranked_score}, {"j_pred_hz", c.j_pred_hz}});
+  return doc;
+}
+
 void run_analysis(const Options& o, const Globals& g) {
   if (o.x3 != "carbon" && o.x3 != "oxygen")
     throw Error(fmt::format("--x3 must be carbon or oxygen, not '{}'", o.x3), Location::field_in("", "--x3"));
@@ -36,27 +65,11 @@ void run_analysis(const Options& o, const Globals& g) {
   const auto measured = read_measured(o.couplings, predictor);
   const Analysis a = analyse(predictor, measured);
 
-  if (g.json) {
-    Json doc = {{"couplings_file", o.couplings}, {"x3", o.x3}, {"rules", predictor.rules().id},
-                {"rules_source", predictor.rules().citation}, {"verdict", verdict_name(a.verdict)},
-                {"statement", a.statement}, {"poor_fit", a.poor_fit}, {"arrangements", Json::array()},
-                {"candidates", Json::array()}};
-    for (std::size_t i = 0; i < a.arrangements.size(); ++i) {
-      Json arr = {{"name", a.arrangements[i].name()}, {"short_name", a.arrangements[i].short_name()},
-                  {"configuration", configuration_name(a.arrangements[i].configuration)}, {"couplings", Json::array()}};
-      for (std::size_t k = 0; k < measured.size(); ++k) {
-        const auto& p = a.predictions[i][k];
-        arr["couplings"].push_back({{"name", measured[k].name}, {"j_hz", p.j_hz}, {"tolerance_hz", p.tolerance_hz},
-                                    {"category", p.category}, {"basis", p.basis}, {"dihedral_deg", p.dihedral_deg}});
-      }
-      doc["arrangements"].push_back(arr);
-    }
-    for (const auto& c : a.candidates)
-      doc["candidates"].push_back({{"name", c.name}, {"configuration", configuration_name(c.configuration)},
-                                   {"members", c.members}, {"fraction_first", c.fraction}, {"score", c.score},
-                                   {"ranked_score", c.ranked_score}, {"j_pred_hz", c.j_pred_hz}});
-    return g.print_json(doc);
-  }
+  const Json doc = analysis_json(o, predictor, measured, a);
+  if (!o.report.empty())
+    save_result_report(doc, report::kConfigurationFormat, fmt::format("Relative configuration from {}", o.couplings),
+                       o.report, g);
+  if (g.json) return g.print_json(doc);
 
   // Predicted vs measured, one column per staggered arrangement.
   std::vector<std::string> header = {"coupling", "measured"};
@@ -98,6 +111,9 @@ void setup(CLI::App& root, Globals& g) {
   c->add_option("--x3", o->x3, "What C3 carries besides H3 and C4: carbon (e.g. a methyl) or oxygen")
       ->capture_default_str();
   c->add_option("--rules", o->rules, "Category file in db/acyclic/ (id) or a path")->capture_default_str();
+  c->add_option("--report", o->report,
+                "Folder for the HTML report (report.html, figures/, tables/) and configuration.json, from which "
+                "`vicinal report` rebuilds it");
   c->add_option("--show", o->show, "Candidates to list")->capture_default_str()->check(CLI::Range(1, 100));
   c->footer(
       "The fragment is C1-C2(H2)(X2=O)-C3(H3)(X3)-C4. Coupling names in the CSV:\n"
@@ -105,7 +121,9 @@ void setup(CLI::App& root, Globals& g) {
       "  H2-X3  3J(H2,X3) when X3 is a carbon   C2-H3  2J(C2,H3)   C3-H2  2J(C3,H2) when X3 is an oxygen\n"
       "Example: vicinal configuration --couplings examples/acyclic/methyl-carbinol.csv\n"
       "Each of the six staggered rotamers (and pairs in fast exchange) is scored against the\n"
-      "measured values (method of Matsumori et al., J. Org. Chem. 64, 866, 1999). Signs are ignored.");
+      "measured values (method of Matsumori et al., J. Org. Chem. 64, 866, 1999). Signs are ignored.\n"
+      "--report DIR adds an HTML page: the predictions beside the measurements, how far each coupling\n"
+      "lies from each arrangement, and the candidates' scores.");
   c->callback([o, &g] { run_analysis(*o, g); });
 }
 

@@ -133,7 +133,7 @@ fit::PopulationProblem problem_from_matrix(const std::string& matrix_csv, const 
                   fmt::format("name a column \"{},{}\" (or \"{}/{} j_hz\" as `vicinal predict --csv` writes)", a, b, a, b));
     for (int i = 0; i < n; ++i) {
       const auto& csv_row = table.rows()[i];
-      p.j_hz(r, i) = parse_double(csv_row.fields[*column], table.where(csv_row, *column));
+      p.j_hz(r, i) = parse_coupling_hz(csv_row.fields[*column], table.where(csv_row, *column));
     }
     p.j_obs_hz(r) = *row.j_hz;
     p.sigma_hz(r) = measured.sigma_hz[r];

@@ -2,7 +2,9 @@
 //                             or self-consistently to several coupling types per site
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
+#include <functional>
 #include <sstream>
 
 #include "calibrate/calibration_points.h"
@@ -12,7 +14,10 @@
 #include "calibrate/set_file.h"
 #include "cli/command.h"
 #include "cli/library_common.h"
+#include "cli/result_report_output.h"
 #include "core/error.h"
+#include "report/calibration_section.h"
+#include "report/self_consistent_section.h"
 #include "report/table.h"
 
 namespace vicinal::cli {
@@ -22,7 +27,7 @@ namespace {
 using namespace vicinal::calibrate;
 
 struct Options {
-  std::string points, sites, form = "three-term", like, loss = "squared", compare, id, out, title;
+  std::string points, sites, form = "three-term", like, loss = "squared", compare, id, out, title, report;
   int order = 2, bootstrap_samples = 200;
   double offset_deg = NAN, loss_scale = 2.0;
   std::uint64_t seed = 1;
@@ -94,6 +99,33 @@ std::vector<const karplus::ParameterSet*> sets_to_compare(const Options& o, cons
   return out;
 }
 
+// --report: the points with their fitted values and the curves of the fit and
+// of every compared set on a 2 degree grid go into the document beside the
+// --json result, so that the page can be rebuilt from it alone.
+void save_calibration_report(const Options& o, Json doc, const NewSet& shape, const CalibrationOptions& copt,
+                             const Calibration& fit, const std::vector<CalibrationPoint>& points,
+                             const std::vector<const karplus::ParameterSet*>& compared, const Globals& g) {
+  doc["coupling"] = shape.coupling;
+  doc["angle_name"] = shape.angle_name;
+  doc["data"] = Json::array();
+  for (const auto& p : points)
+    doc["data"].push_back({{"j_hz", p.j_hz}, {"sigma_hz", p.sigma_hz}, {"dihedral_deg", p.dihedral_deg},
+                           {"fitted_hz", model_j_hz(copt, fit.coefficients, p.dihedral_deg)}});
+  std::vector<double> grid;
+  for (double d = -180; d <= 180 + 1e-9; d += 2) grid.push_back(d);
+  const auto curve = [&](const std::string& label, bool fitted, const std::function<double(double)>& j) {
+    std::vector<double> values;
+    for (double d : grid) values.push_back(j(d));
+    return Json{{"label", label}, {"fitted", fitted}, {"dihedral_deg", grid}, {"j_hz", values}};
+  };
+  doc["curves"] = Json::array({curve(o.id.empty() ? "this calibration" : o.id, true,
+                                     [&](double d) { return model_j_hz(copt, fit.coefficients, d); })});
+  for (const auto* set : compared)
+    doc["curves"].push_back(curve(set->id, false, [set](double d) { return karplus::j_hz(*set, d); }));
+  save_result_report(doc, report::kCalibrationFormat,
+                     fmt::format("Karplus calibration of {} on {} points", shape.coupling, fit.stats.n), o.report, g);
+}
+
 void calibrate_points(const Options& o, const Globals& g) {
   CalibrationOptions copt;
   copt.form = karplus::parse_form(o.form);
@@ -128,13 +160,14 @@ void calibrate_points(const Options& o, const Globals& g) {
     tc.add_row({fit.names[i], num(fit.coefficients[i]), num(fit.sd[i]),
                 fmt::format("[{:.3f}, {:.3f}]", boot.low[i], boot.high[i])});
   }
+  const auto compared = sets_to_compare(o, shape);
   report::TextTable tj({"set", "k", "RMSD / Hz", "reduced chi^2", "AIC", "BIC"});
   tj.add_row({"this calibration", fmt::format("{}", fit.stats.k), num(fit.stats.rmsd_hz), num(fit.stats.reduced_chi2),
               num(fit.stats.aic, "{:.1f}"), num(fit.stats.bic, "{:.1f}")});
-  for (const auto* set : sets_to_compare(o, shape)) {
+  for (const auto* set : compared) {
     const FitStatistics s = judge_set(*set, points);
     doc["comparison"].push_back({{"set", set->id}, {"rmsd_hz", s.rmsd_hz}, {"reduced_chi2", finite_or_null(s.chi2 / s.n)},
-                                 {"aic", s.aic}, {"bic", s.bic}, {"k", 0}});
+                                 {"aic", s.aic}, {"bic", s.bic}, {"k", 0}, {"citation", set->citation}});
     tj.add_row({set->id, "0", num(s.rmsd_hz), num(s.chi2 / s.n), num(s.aic, "{:.1f}"), num(s.bic, "{:.1f}")});
   }
 
@@ -165,6 +198,7 @@ void calibrate_points(const Options& o, const Globals& g) {
     doc["written"] = written;
     g.note(fmt::format("new set '{}' written to {}", o.id, written));
   }
+  if (!o.report.empty()) save_calibration_report(o, doc, shape, copt, fit, points, compared, g);
   if (g.json) return g.print_json(doc);
   std::string text = fmt::format("Calibration of the {} form (offset {} deg) on {} points from {}, {} loss\n\n",
                                  karplus::form_name(copt.form), copt.offset_deg, fit.stats.n, in.description, loss_name(copt.loss));
@@ -174,6 +208,39 @@ void calibrate_points(const Options& o, const Globals& g) {
   text += tj.render();
   if (written.empty()) text += "Not saved: give --id (and --out or $VICINAL_KARPLUS_DIR) to write the set.\n";
   g.print(text);
+}
+
+// --report with --sites: per type the fitted and the starting curve on a 2
+// degree grid and the measured couplings at their sites' fitted angles.
+void save_self_consistent_report(const Options& o, Json doc, const std::vector<SiteCoupling>& rows,
+                                 const SelfConsistentFit& fit, const Globals& g) {
+  std::vector<double> grid;
+  for (double d = -180; d <= 180 + 1e-9; d += 2) grid.push_back(d);
+  doc["angle_name"] = fit.types.front().angle_name;
+  doc["curves"] = Json::array();
+  for (std::size_t t = 0; t < fit.types.size(); ++t) {
+    const auto& type = fit.types[t];
+    CalibrationOptions shape;
+    shape.offset_deg = type.offset_deg;
+    std::vector<double> fitted, start;
+    for (double d : grid) {
+      fitted.push_back(model_j_hz(shape, fit.coefficients[t], d));
+      start.push_back(karplus::j_hz(type, d));
+    }
+    Json points = Json::array();
+    for (const auto& r : rows) {
+      if (r.type != type.id) continue;
+      const auto site = std::find(fit.sites.begin(), fit.sites.end(), r.site) - fit.sites.begin();
+      points.push_back({{"site", r.site}, {"angle_deg", fit.angle_deg[static_cast<std::size_t>(site)]},
+                        {"j_hz", r.j_hz}, {"sigma_hz", r.sigma_hz}});
+    }
+    doc["curves"].push_back({{"type", type.id}, {"coupling", type.coupling}, {"dihedral_deg", grid},
+                             {"fitted_hz", fitted}, {"start_hz", start}, {"points", points}});
+  }
+  save_result_report(doc, report::kSelfConsistentFormat,
+                     fmt::format("Self-consistent Karplus calibration of {} types on {} sites", fit.types.size(),
+                                 fit.sites.size()),
+                     o.report, g);
 }
 
 void calibrate_sites(const Options& o, const Globals& g) {
@@ -218,6 +285,7 @@ void calibrate_sites(const Options& o, const Globals& g) {
       g.note(fmt::format("new set '{}' written to {}", set.id, path.string()));
     }
   }
+  if (!o.report.empty()) save_self_consistent_report(o, doc, rows, fit, g);
   if (g.json) return g.print_json(doc);
   g.print(fmt::format("Self-consistent calibration: {} couplings, {} types, {} sites ({} parameters), chi^2 = {:.3f}\n\n{}\n{}",
                       fit.n, fit.types.size(), fit.sites.size(), fit.k, fit.chi2, tt.render(), ts.render()));
@@ -258,12 +326,17 @@ void setup(CLI::App& root, Globals& g) {
                                          "(default: every set for the same nuclei and angle)");
   c->add_option("--id", o->id, "Save the result as a set with this id (self-consistent: prefix of one set per type)");
   c->add_option("--title", o->title, "Title of the saved set");
+  c->add_option("--report", o->report,
+                "Folder for the HTML report (report.html, figures/, tables/) and calibration.json (with --sites: "
+                "self-consistent.json), from which `vicinal report` rebuilds it");
   c->add_option("--out", o->out, "File (or, with --sites, folder) to write (default: $VICINAL_KARPLUS_DIR)");
   c->footer(
       "Example: vicinal karplus calibrate --points my-pairs.csv --like hh-karplus-1963 --id hh-my-lab --out hh-my-lab.json\n"
       "Put saved sets in $VICINAL_KARPLUS_DIR and every command finds them by id.\n"
       "Pairs must cover the angle range: coefficients from a narrow range are extrapolations.\n"
-      "From the library: vicinal karplus calibrate --from-library --nuclei H,H --smarts '[H]C-C[H]' --default-sigma-hz 0.5");
+      "From the library: vicinal karplus calibrate --from-library --nuclei H,H --smarts '[H]C-C[H]' --default-sigma-hz 0.5\n"
+      "--report DIR adds an HTML page: coefficients with bootstrap intervals, the published sets on the same\n"
+      "data, and the points with the fitted and published curves.");
   c->callback([o, points, sites, &g] {
     if (points->count() == 0 && sites->count() == 0 && !o->from_library)
       throw Error("nothing to calibrate on", Location::field_in("", "--points"),

@@ -5,6 +5,7 @@
 
 #include "cli/command.h"
 #include "cli/library_common.h"
+#include "library/derived.h"
 #include "library/query.h"
 #include "report/table.h"
 
@@ -13,6 +14,29 @@ namespace vicinal::cli {
 namespace {
 
 std::string optional_text(const std::optional<double>& v) { return v ? fmt::format("{}", *v) : "-"; }
+
+// "-65.2..-21.0, 21.0..65.2 (set-id)" for each set, or "-".
+std::string derived_text(const std::vector<library::DerivedResult>& results) {
+  std::string out;
+  for (const auto& r : results) {
+    std::string intervals;
+    for (const auto& iv : r.intervals)
+      intervals += fmt::format("{}{:.1f}..{:.1f}", intervals.empty() ? "" : ", ", iv.from_deg, iv.to_deg);
+    out += fmt::format("{}{} ({})", out.empty() ? "" : "; ", intervals.empty() ? "none" : intervals, r.karplus_set);
+  }
+  return out.empty() ? "-" : out;
+}
+
+Json derived_json(const std::vector<library::DerivedResult>& results) {
+  Json out = Json::array();
+  for (const auto& r : results) {
+    Json intervals = Json::array();
+    for (const auto& iv : r.intervals) intervals.push_back({{"from_deg", iv.from_deg}, {"to_deg", iv.to_deg}});
+    out.push_back({{"karplus_set", r.karplus_set}, {"coverage_k", library::kDerivedCoverage},
+                   {"intervals", std::move(intervals)}});
+  }
+  return out;
+}
 
 std::string conditions_text(const library::Conditions& k) {
   std::vector<std::string> parts;
@@ -34,6 +58,15 @@ void run_show(const std::string& what, const Globals& g) {
   const auto id = library::find_compound(lib->db(), what);
   const auto entries = lib->read_entries({id});
   const auto& e = entries.at(0);
+  // Derived results (library derive), paired with the couplings in entry order.
+  const auto derived = library::read_derived(lib->db(), id);
+  const auto coupling_ids = library::coupling_ids_in_entry_order(lib->db(), id);
+  std::size_t next = 0;
+  auto derived_of_next = [&]() -> std::vector<library::DerivedResult> {
+    const auto it = next < coupling_ids.size() ? derived.find(coupling_ids[next]) : derived.end();
+    ++next;
+    return it == derived.end() ? std::vector<library::DerivedResult>{} : it->second;
+  };
   const auto& c = e.compound;
   if (g.json) {
     Json doc = {{"id", id}, {"name", c.name}, {"inchikey", c.inchikey}, {"inchi", c.inchi}, {"smiles", c.smiles},
@@ -55,6 +88,7 @@ void run_show(const std::string& what, const Globals& g) {
                   {"canonical_ranks", {x.ranks_a, x.ranks_b}}, {"identity", x.identity},
                   {"karplus_set", x.karplus_set}, {"note", x.note}, {"origin", x.origin}};
         j["sigma_hz"] = x.sigma_hz ? Json(*x.sigma_hz) : Json();
+        j["derived"] = derived_json(derived_of_next());
         sj["couplings"].push_back(std::move(j));
       }
       doc["sets"].push_back(std::move(sj));
@@ -70,13 +104,14 @@ void run_show(const std::string& what, const Globals& g) {
     for (const auto& n : s.notes) text += "note: " + n + "\n";
     std::map<std::string, int> seen;
     for (const auto& x : s.couplings) any_conflict |= ++seen[x.identity] > 1;
-    report::TextTable t({"nuclei", "atoms", "nJ", "J/Hz", "sigma/Hz", "assignment", "note", "from"});
+    report::TextTable t({"nuclei", "atoms", "nJ", "J/Hz", "sigma/Hz", "assignment", "dihedral/deg (set)", "note", "from"});
     for (const auto& x : s.couplings)
       t.add_row({x.nucleus_a + "," + x.nucleus_b,
                  library::join_atoms(x.atoms_a, '|') + "," + library::join_atoms(x.atoms_b, '|'),
                  fmt::format("{}J({},{})", x.bond_count, x.isotope_a, x.isotope_b),
                  fmt::format("{}{}{}", x.sign_known && x.j_hz > 0 ? "+" : "", x.j_hz, seen[x.identity] > 1 ? " !" : ""),
-                 optional_text(x.sigma_hz), x.stereo_unassigned ? "stereo-unassigned" : "assigned", x.note, x.origin});
+                 optional_text(x.sigma_hz), x.stereo_unassigned ? "stereo-unassigned" : "assigned",
+                 derived_text(derived_of_next()), x.note, x.origin});
     text += t.render();
   }
   if (e.sets.empty()) text += "\n(no couplings stored)\n";

@@ -75,12 +75,16 @@ spin::PeakList read_peaks(const Options& o) {
     throw Error("positions in ppm need the spectrometer frequency", Location::field_in("", "--field-mhz"),
                 "add --field-mhz 400 (the 1H frequency)");
   const auto int_col = table.column("intensity");
+  if (table.rows().empty())
+    throw Error("no peaks in the file", {o.peaks_path}, "give one row per resolved line of the multiplet");
   for (const auto& row : table.rows()) {
-    if (hz_col) {
-      peaks.hz.push_back(parse_double(row.fields[*hz_col], table.where(row, *hz_col)));
-    } else {
-      peaks.hz.push_back(parse_double(row.fields[*ppm_col], table.where(row, *ppm_col)) * *o.field_mhz);
-    }
+    const std::size_t col = hz_col ? *hz_col : *ppm_col;
+    const double hz = parse_double(row.fields[col], table.where(row, col)) * (hz_col ? 1.0 : *o.field_mhz);
+    // A position beyond 1 MHz from the reference is no NMR line (1000 ppm at
+    // 1 GHz): a damaged file or a typo. Common practice, no source.
+    if (std::fabs(hz) > 1e6)
+      throw Error(fmt::format("the position {:g} Hz is beyond 1 MHz from the reference", hz), table.where(row, col));
+    peaks.hz.push_back(hz);
     if (int_col) {
       const double v = parse_double(row.fields[*int_col], table.where(row, *int_col));
       if (!(v > 0)) throw Error(fmt::format("intensity {} is not positive", v), table.where(row, *int_col));

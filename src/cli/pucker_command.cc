@@ -7,6 +7,7 @@
 #include <sstream>
 
 #include "cli/command.h"
+#include "cli/result_report_output.h"
 #include "core/error.h"
 #include "karplus/karplus.h"
 #include "pucker/pseudorotation.h"
@@ -14,6 +15,7 @@
 #include "pucker/ring_model.h"
 #include "pucker/two_state_fit.h"
 #include "report/heatmap.h"
+#include "report/pucker_section.h"
 #include "report/table.h"
 
 namespace vicinal::cli {
@@ -61,7 +63,7 @@ void predict(const PredictOptions& o, const Globals& g) {
   const RingModel ring = RingModel::load(o.ring);
   const RingCouplings model(ring, karplus::SetCatalog::shipped(), o.set);
   const auto nu = endocyclic_torsions_deg(o.phase_deg, o.amplitude_deg);
-  const std::string form = envelope_name(o.phase_deg, ring.ring_atoms);
+  const std::string form = ring.envelope(o.phase_deg);
   Json doc = {{"ring", ring.id}, {"phase_deg", wrap_phase_deg(o.phase_deg)}, {"amplitude_deg", o.amplitude_deg},
               {"nearest_envelope", form}, {"torsions_deg", nu}, {"couplings", Json::array()}};
   report::TextTable tn({"torsion", "atoms", "deg"});
@@ -85,7 +87,7 @@ void predict(const PredictOptions& o, const Globals& g) {
 
 // ---------------------------------------------------------------- fit
 struct FitCommandOptions {
-  std::string ring = "deoxyribose", couplings, set, fix = "amplitudes", map;
+  std::string ring = "deoxyribose", couplings, set, fix = "amplitudes", map, report;
   bool tie = false;
   double pn = 9, ps = 162, amplitude = 36, fraction = 0.5;
   double amplitude_n = NAN, amplitude_s = NAN;
@@ -118,32 +120,42 @@ std::string status_of(const TwoStateFit& fit, int p) {
   return fit.at_bound[p] ? "free, at its bound" : "free";
 }
 
-void write_map(const FitCommandOptions& o, const RingCouplings& model, const std::vector<MeasuredRingCoupling>& measured,
-               const TwoStateOptions& options, const TwoStateFit& fit, const Globals& g) {
+Chi2Map compute_map(const FitCommandOptions& o, const RingCouplings& model,
+                    const std::vector<MeasuredRingCoupling>& measured, const TwoStateOptions& options,
+                    const TwoStateFit& fit, const Globals& g) {
   auto progress = g.progress();
   progress->start("chi^2 map", 1);
-  const Chi2Map map = chi2_map(model, measured, options, fit, o.map_step);
+  Chi2Map map = chi2_map(model, measured, options, fit, o.map_step);
   progress->finish();
-  report::HeatMap h;
-  h.title = fmt::format("chi^2 over (P_N, P_S), {} ring", model.ring().id);
-  h.x_label = "P_N / deg";
-  h.y_label = "P_S / deg";
-  h.value_label = "chi^2";
-  h.x = map.phase_n_deg;
-  h.y = map.phase_s_deg;
-  h.value = map.chi2;
-  h.log_scale = true;
-  // Delta chi^2 = 2.30 and 6.18 bound the 68.3 % and 95.4 % joint regions of two
-  // parameters (Press et al., Numerical Recipes, section 15.6; from memory).
-  h.outlines = {fit.chi2 + 2.30, fit.chi2 + 6.18};
-  h.points.push_back({fit.value[kPhaseN], fit.value[kPhaseS], "best fit"});
+  return map;
+}
+
+// What the map's footnote says about the parameters not on its axes.
+std::string map_note(const FitCommandOptions& o, const TwoStateFit& fit) {
   std::string others;
   for (int p : {kAmplitudeN, kAmplitudeS, kFractionS})
-    others += fmt::format("{} {}; ", parameter_name(p), fit.fixed[p] ? "fixed" : "refitted at each point");
-  h.footnote = fmt::format("White outlines: chi^2_min + 2.30 and + 6.18 (68 % and 95 % joint regions). {}"
-                           "grid step {:g} deg. Couplings from {}.", others, o.map_step, o.couplings);
-  report::save_heatmap(h, o.map);
-  g.note(fmt::format("chi^2 map written to {}", o.map));
+    others += fmt::format("{} {}; ", parameter_name(p),
+                          fit.fixed[p]                                    ? "fixed"
+                          : fit.tied_amplitudes && p == kAmplitudeS ? "tied to nu_max_N"
+                                                                          : "refitted at each point");
+  return fmt::format("{}grid step {:g} deg. Couplings from {}.", others, o.map_step, o.couplings);
+}
+
+// The couplings of the model over the whole cycle (North amplitude below
+// P = 90, South above), for the report's figure.
+Json cycle_curves(const RingCouplings& model, const std::vector<MeasuredRingCoupling>& measured, const TwoStateFit& fit) {
+  Json phases = Json::array();
+  for (double p = -90; p <= 270 + 1e-9; p += 3) phases.push_back(p);
+  Json curves = Json::array();
+  for (const auto& m : measured) {
+    Json j = Json::array();
+    for (const auto& p : phases) {
+      const double phase = p.get<double>();
+      j.push_back(model.j_hz(m.coupling, phase, phase < 90 ? fit.value[kAmplitudeN] : fit.value[kAmplitudeS]));
+    }
+    curves.push_back({{"name", model.ring().couplings[m.coupling].name}, {"j_hz", j}});
+  }
+  return {{"phase_deg", phases}, {"couplings", curves}};
 }
 
 void fit(const FitCommandOptions& o, const Globals& g) {
@@ -191,8 +203,8 @@ void fit(const FitCommandOptions& o, const Globals& g) {
     tp.add_row({parameter_name(p) + (angle ? " / deg" : ""), number_or_dash(result.value[p], angle ? "{:.1f}" : "{:.3f}"),
                 number_or_dash(sd[p], angle ? "{:.1f}" : "{:.3f}"), status_of(result, p)});
   }
-  doc["parameters"]["P_N"]["nearest_envelope"] = envelope_name(result.value[kPhaseN], ring.ring_atoms);
-  doc["parameters"]["P_S"]["nearest_envelope"] = envelope_name(result.value[kPhaseS], ring.ring_atoms);
+  doc["parameters"]["P_N"]["nearest_envelope"] = ring.envelope(result.value[kPhaseN]);
+  doc["parameters"]["P_S"]["nearest_envelope"] = ring.envelope(result.value[kPhaseS]);
   report::TextTable tc({"coupling", "J obs", "sigma", "J North", "J South", "J calc", "obs - calc"});
   for (std::size_t i = 0; i < measured.size(); ++i) {
     const auto& m = measured[i];
@@ -203,7 +215,23 @@ void fit(const FitCommandOptions& o, const Globals& g) {
                 fmt::format("{:.2f}", result.j_north_hz[i]), fmt::format("{:.2f}", result.j_south_hz[i]),
                 fmt::format("{:.2f}", result.j_calc_hz[i]), fmt::format("{:+.2f}", m.j_hz - result.j_calc_hz[i])});
   }
-  if (!o.map.empty()) write_map(o, model, measured, options, result, g);
+  if (!o.map.empty() || !o.report.empty()) {
+    // The map file and the report draw the same figure from the report's document.
+    const Chi2Map map = compute_map(o, model, measured, options, result, g);
+    Json report_doc = doc;
+    report_doc["ring_title"] = ring.title;
+    report_doc["relations_source"] = ring.relations_source;
+    report_doc["map"] = {{"phase_n_deg", map.phase_n_deg}, {"phase_s_deg", map.phase_s_deg}, {"chi2", map.chi2},
+                         {"note", map_note(o, result)}};
+    report_doc["cycle"] = cycle_curves(model, measured, result);
+    if (!o.map.empty()) {
+      report::save_heatmap(report::pucker_chi2_heatmap(report_doc), o.map);
+      g.note(fmt::format("chi^2 map written to {}", o.map));
+    }
+    if (!o.report.empty())
+      save_result_report(report_doc, report::kPuckerFitFormat,
+                         fmt::format("Ring puckering of the {} ring from {}", ring.id, o.couplings), o.report, g);
+  }
   if (dof == 0) g.note("as many free parameters as couplings: the fit is exact by construction, chi^2 tests nothing");
   for (int p = 0; p < kParameterCount; ++p)
     if (result.at_bound[p])
@@ -214,8 +242,8 @@ void fit(const FitCommandOptions& o, const Globals& g) {
                                  o.couplings);
   text += fmt::format("Constraints: {}\n\n", fixed_names.empty() ? "none" : fmt::format("{}", fmt::join(fixed_names, ", ")));
   text += tp.render();
-  text += fmt::format("North: {}   South: {}   (nearest envelopes)\n", envelope_name(result.value[kPhaseN], ring.ring_atoms),
-                      envelope_name(result.value[kPhaseS], ring.ring_atoms));
+  text += fmt::format("North: {}   South: {}   (nearest envelopes)\n", ring.envelope(result.value[kPhaseN]),
+                      ring.envelope(result.value[kPhaseS]));
   text += fmt::format("Uncertainties: {}.\n\n", sd_source);
   text += tc.render();
   text += fmt::format("chi^2 = {:.3f} with {} degrees of freedom{}\n", result.chi2, dof,
@@ -266,10 +294,14 @@ void setup(CLI::App& root, Globals& g) {
   f->add_option("--seed", fo->seed, "Seed of the Monte Carlo noise")->capture_default_str();
   f->add_option("--map", fo->map, "Write chi^2 over (P_N, P_S) as a heat map (.svg, .pdf or .png)");
   f->add_option("--map-step-deg", fo->map_step, "Grid step of the map")->capture_default_str();
+  f->add_option("--report", fo->report,
+                "Folder for the HTML report (report.html, figures/, tables/) and pucker.json, from which "
+                "`vicinal report` rebuilds it");
   f->footer("Example: vicinal pucker fit --ring deoxyribose --couplings examples/pucker/deoxy-nucleoside.csv --map chi2.svg\n"
             "The CSV has a header row: coupling,j_hz,sigma_hz (names as 'pucker rings' lists them).\n"
             "By default both amplitudes are fixed at 36 deg and P_N, P_S, x_S are fitted; with three\n"
-            "couplings (ribose) also fix P_N or P_S. The fit is a model: check the chi^2 map.");
+            "couplings (ribose) also fix P_N or P_S. The fit is a model: check the chi^2 map.\n"
+            "--report DIR writes an HTML page with the parameters, the chi^2 map and the couplings around the cycle.");
   f->callback([fo, &g] { fit(*fo, g); });
 }
 

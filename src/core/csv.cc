@@ -2,6 +2,10 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <cstdint>
+#include <cstring>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 
@@ -134,7 +138,33 @@ CsvTable CsvTable::parse(std::string_view text, const std::string& source) {
   return table;
 }
 
+void require_utf8_text(std::string_view text, const std::string& source, long first_line) {
+  // Lines are counted only when a fault is found; ASCII without NUL is skipped
+  // eight bytes at a time, so big structure files cost little.
+  const auto fault = [&](std::size_t at, const char* what) {
+    const long line = first_line + static_cast<long>(std::count(text.begin(), text.begin() + static_cast<long>(at), '\n'));
+    throw Error(what, {source, line}, "save it as UTF-8 text");
+  };
+  constexpr std::uint64_t kHigh = 0x8080808080808080ull, kLow = 0x0101010101010101ull;
+  for (std::size_t i = 0; i < text.size();) {
+    if (i + 8 <= text.size()) {
+      std::uint64_t word;
+      std::memcpy(&word, text.data() + i, 8);
+      if (((word | ((word - kLow) & ~word)) & kHigh) == 0) {  // no high bit, no zero byte
+        i += 8;
+        continue;
+      }
+    }
+    if (text[i] == '\0') fault(i, "the file contains a NUL byte; is it a binary file or UTF-16 text?");
+    const std::size_t n = utf8_length(text, i);
+    if (n == 0) fault(i, "the file is not valid UTF-8 text");
+    i += n;
+  }
+}
+
 std::string read_text_file(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) throw Error("is a folder, not a file", {path});
   std::ifstream in(path, std::ios::binary);
   if (!in) throw Error("cannot open the file for reading", {path}, "check the path and permissions");
   std::ostringstream buffer;

@@ -47,7 +47,11 @@ class CsvTable {
 // Quote a field for writing when it needs it.
 std::string csv_escape(std::string_view field);
 
-// Reads a whole file into memory; errors name the path.
+// Reads a whole file into memory; errors name the path (also when it is a folder).
 std::string read_text_file(const std::string& path);
+
+// vicinal::Error naming `source` and the line (counted from `first_line`) of the
+// first NUL byte or byte sequence that is not UTF-8.
+void require_utf8_text(std::string_view text, const std::string& source, long first_line = 1);
 
 }  // namespace vicinal

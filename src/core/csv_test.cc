@@ -52,5 +52,17 @@ TEST(Csv, FieldLocationNamesColumn) {
   EXPECT_EQ(t.where(t.rows()[0], 1).describe(), "c.csv:2: column 2 'j_hz'");
 }
 
+TEST(Csv, Utf8CheckNamesTheLine) {
+  EXPECT_NO_THROW(require_utf8_text("plain ascii, longer than eight bytes\n\xc3\xa9t\xc3\xa9\n", "t.sdf"));
+  try {
+    require_utf8_text("line one is long enough\nline two \xe9 (Latin-1)\n", "t.sdf", 10);
+    FAIL();
+  } catch (const Error& e) {
+    EXPECT_EQ(e.where().line, 11);
+  }
+  EXPECT_THROW(require_utf8_text(std::string("abcdefghij\0k", 12), "t.sdf"), Error);
+  EXPECT_THROW(read_text_file("."), Error);  // a folder is not a file
+}
+
 }  // namespace
 }  // namespace vicinal

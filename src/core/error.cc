@@ -41,6 +41,17 @@ std::string Error::one_line() const {
   std::string text = std::runtime_error::what();
   for (char& c : text)
     if (c == '\n' || c == '\r') c = ' ';
+  // Input echoed in a message (a 10 MB header, say) must not flood the terminal:
+  // keep the start (place and problem) and the end (the hint).
+  constexpr std::size_t kKeep = 1000, kTail = 300;
+  if (text.size() > kKeep) {
+    // Cut at UTF-8 character starts, so the line stays valid text.
+    auto start_of_char = [&](std::size_t i) {
+      while (i > 0 && (static_cast<unsigned char>(text[i]) & 0xC0) == 0x80) --i;
+      return i;
+    };
+    text = text.substr(0, start_of_char(kKeep - kTail)) + " [...] " + text.substr(start_of_char(text.size() - kTail));
+  }
   return text;
 }
 

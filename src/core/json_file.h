@@ -3,6 +3,7 @@
 #pragma once
 
 #include <nlohmann/json.hpp>
+#include <initializer_list>
 #include <string>
 #include <string_view>
 
@@ -21,5 +22,10 @@ const Json& json_member(const Json& object, const std::string& key, const std::s
                         const std::string& context);
 double json_number(const Json& value, const std::string& source, const std::string& context);
 std::string json_string(const Json& value, const std::string& source, const std::string& context);
+
+// Refuses a key of `object` that is not in `allowed`, naming it (so that a
+// misspelt key is not silently ignored). `context` is the object's key path.
+void json_require_keys(const Json& object, std::initializer_list<std::string_view> allowed, const std::string& source,
+                       const std::string& context);
 
 }  // namespace vicinal

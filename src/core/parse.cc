@@ -36,6 +36,14 @@ double parse_double(std::string_view text, const Location& where) {
   return value;
 }
 
+double parse_coupling_hz(std::string_view text, const Location& where) {
+  const double value = parse_double(text, where);
+  if (std::fabs(value) > kMaxCouplingHz)
+    throw Error(fmt::format("{:g} Hz is outside -{:g}..{:g} Hz", value, kMaxCouplingHz, kMaxCouplingHz), where,
+                "give the coupling in Hz");
+  return value;
+}
+
 long parse_long(std::string_view text, const Location& where) {
   const std::string_view t = trim(text);
   if (t.empty()) throw Error("expected an integer, found an empty field", where);

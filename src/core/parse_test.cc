@@ -30,5 +30,11 @@ TEST(Parse, ErrorNamesTheField) {
   }
 }
 
+TEST(Parse, CouplingBeyondThousandHertzIsRefused) {
+  EXPECT_DOUBLE_EQ(parse_coupling_hz("-999.5", {}), -999.5);
+  EXPECT_THROW(parse_coupling_hz("1234567890123456789012345678901234567890", {"f.csv", 2}), Error);
+  EXPECT_THROW(parse_coupling_hz("1000.01", {}), Error);
+}
+
 }  // namespace
 }  // namespace vicinal

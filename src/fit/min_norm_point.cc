@@ -61,8 +61,8 @@ HullPoint min_norm_point(const Eigen::MatrixXd& c, std::span<const int> warm_sup
       total += warm_weight[j];
     }
     for (double& l : lam) l /= total;
-    Eigen::VectorXd probe;
-    if (!s.empty() && !affine_minimizer(c, s, probe)) s.clear();
+    // An affinely dependent warm support is caught by the first minor cycle
+    // below, which then falls back to the cold start.
   }
   if (s.empty()) {
     int j0;

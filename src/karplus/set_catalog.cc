@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 #include <cstdlib>
 #include <filesystem>
 #include <map>
@@ -14,6 +15,7 @@
 #include "core/data_dir.h"
 #include "core/error.h"
 #include "core/json_file.h"
+#include "core/parse.h"
 #include "karplus/curve.h"
 #include "karplus/karplus.h"
 
@@ -136,7 +138,11 @@ ParameterSet SetCatalog::load_file(const std::string& path) {
       set.coefficients.push_back(0.0);
       continue;
     }
-    set.coefficients.push_back(json_number(json_member(coeff, name, path, "coefficients"), path, "coefficients." + name));
+    const double c = json_number(json_member(coeff, name, path, "coefficients"), path, "coefficients." + name);
+    if (std::fabs(c) > kMaxCouplingHz)
+      throw bad("coefficients." + name, fmt::format("coefficient {:g} is outside -{:g}..{:g}", c, kMaxCouplingHz,
+                                                    kMaxCouplingHz));
+    set.coefficients.push_back(c);
   }
   if (set.form == Form::Haasnoot) {
     const double count = doc.contains("substituent_count") ? num("substituent_count") : 0;
@@ -184,8 +190,11 @@ SetCatalog SetCatalog::load_directory(const std::string& folder) {
   namespace fs = std::filesystem;
   if (!fs::is_directory(folder)) throw Error("not a folder of Karplus set files", {folder});
   std::vector<fs::path> files;
-  for (const auto& entry : fs::directory_iterator(folder))
-    if (entry.is_regular_file() && entry.path().extension() == ".json") files.push_back(entry.path());
+  for (const auto& entry : fs::directory_iterator(folder)) {
+    if (entry.path().extension() != ".json") continue;
+    if (!entry.is_regular_file()) throw Error("is not a regular file", {entry.path().string()}, "remove or rename it");
+    files.push_back(entry.path());
+  }
   std::sort(files.begin(), files.end());
   SetCatalog catalog;
   for (const auto& f : files) catalog.sets_.push_back(load_file(f.string()));

@@ -18,6 +18,7 @@
 #include "structure/molecule_format.h"
 #include "structure/molecule_io.h"
 #include "structure/openbabel_log.h"
+#include "structure/openbabel_read.h"
 
 namespace vicinal::library {
 
@@ -65,7 +66,8 @@ OpenBabel::OBMol molecule_from_molfile(const std::string& text, const std::strin
   OpenBabel::OBConversion conv;
   conv.SetInFormat("sdf");
   OpenBabel::OBMol mol;
-  if (!conv.ReadString(&mol, text) || mol.NumAtoms() == 0 || !log.errors().empty())
+  if (!structure::guarded_read([&] { return conv.ReadString(&mol, text); }, source, "molfile") || mol.NumAtoms() == 0 ||
+      !log.errors().empty())
     throw Error("the molfile does not parse", {source}, "give the structure as a file or SMILES instead");
   int implicit = 0;
   FOR_ATOMS_OF_MOL(atom, mol) implicit += atom->GetImplicitHCount();
@@ -140,8 +142,12 @@ CompoundBuilder::CompoundBuilder(const std::string& name, const StructureSpec& s
     }
     identity_ = std::make_unique<CompoundIdentity>(mol_, source_);
   } catch (const Error& e) {
-    throw Error(fmt::format("compound '{}': {}", name, e.what_happened()),
-                e.where().file.empty() || spec.kind != StructureSpec::Kind::File ? where : e.where(), e.hint());
+    // A fault in a file the row names (structure, labels) is reported at its
+    // own place, with the row that named it in the message.
+    const bool other_file = !e.where().file.empty() && e.where().file != where.file;
+    throw Error(other_file ? fmt::format("compound '{}' (named at {}): {}", name, where.describe(), e.what_happened())
+                           : fmt::format("compound '{}': {}", name, e.what_happened()),
+                other_file ? e.where() : where, e.hint());
   }
   record_.name = name;
   record_.smiles = identity_->smiles();

@@ -12,6 +12,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <set>
 
 #include "core/error.h"
@@ -44,8 +45,17 @@ std::string join(const std::vector<unsigned>& values) {
   return out;
 }
 
-OpenBabel::vector3 pos(const OpenBabel::OBMol& mol, unsigned zero_based) {
-  return const_cast<OpenBabel::OBMol&>(mol).GetAtom(static_cast<int>(zero_based) + 1)->GetVector();
+// Coordinates of every atom, 0-based, three per atom: the geometry test below
+// runs once per automorphism (thousands for a long chain), and reading
+// positions through OBMol there cost more than the arithmetic.
+std::vector<double> coordinates(const OpenBabel::OBMol& mol) {
+  std::vector<double> xyz;
+  FOR_ATOMS_OF_MOL(atom, const_cast<OpenBabel::OBMol&>(mol)) {
+    xyz.push_back(atom->GetX());
+    xyz.push_back(atom->GetY());
+    xyz.push_back(atom->GetZ());
+  }
+  return xyz;
 }
 
 // Orientation of a centre (0-based atoms): with four or more neighbours, the
@@ -53,50 +63,94 @@ OpenBabel::vector3 pos(const OpenBabel::OBMol& mol, unsigned zero_based) {
 // where the centre sits or on distorted angles, and changes sign exactly with
 // the parity of a permutation of those neighbours; with three, the signed
 // volume they span around the centre (pyramidal N, P, S).
-double handedness(const OpenBabel::OBMol& mol, unsigned c, const std::vector<unsigned>& n) {
-  const auto o = n.size() >= 4 ? pos(mol, n[3]) : pos(mol, c);
-  return OpenBabel::dot(pos(mol, n[0]) - o, OpenBabel::cross(pos(mol, n[1]) - o, pos(mol, n[2]) - o));
+// (The same arithmetic, in the same order, as OpenBabel::dot and cross.)
+double handedness(const std::vector<double>& xyz, unsigned n0, unsigned n1, unsigned n2, unsigned o) {
+  auto d = [&](unsigned a, int k) { return xyz[3 * a + k] - xyz[3 * o + k]; };
+  const double ax = d(n0, 0), ay = d(n0, 1), az = d(n0, 2);
+  const double bx = d(n1, 0), by = d(n1, 1), bz = d(n1, 2);
+  const double cx = d(n2, 0), cy = d(n2, 1), cz = d(n2, 2);
+  return ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
 }
 
-// Does the automorphism keep the 3D arrangement? Every non-planar centre must
-// keep its handedness, or every one must invert (a mirror image: enantiotopic
-// nuclei give the same couplings in an achiral solvent), and the cis/trans
-// relation across every non-aromatic double bond must be kept. Planar or flat
-// (2D) centres are not tested.
-bool keeps_geometry(OpenBabel::OBMol& mol, const std::vector<unsigned>& p, bool has_3d) {
-  int kept = 0, inverted = 0;
-  if (has_3d) {
-    FOR_ATOMS_OF_MOL(atom, mol) {
-      std::vector<unsigned> n;
-      FOR_NBORS_OF_ATOM(nb, &*atom) n.push_back(nb->GetIdx() - 1);
-      if (n.size() < 3) continue;
-      const unsigned c = atom->GetIdx() - 1;
-      const double before = handedness(mol, c, n);
-      // Below ~0.1 A^3 the centre is planar (sp2) and has no handedness.
-      if (std::fabs(before) < 0.1) continue;
-      std::vector<unsigned> mapped;
-      for (unsigned x : n) mapped.push_back(p[x]);
-      const double after = handedness(mol, p[c], mapped);
-      ((before > 0) == (after > 0) ? kept : inverted) += 1;
+double dot_of_bonds(const std::vector<double>& xyz, unsigned x, unsigned u, unsigned y, unsigned v) {
+  double sum = 0;
+  for (int k = 0; k < 3; ++k) sum += (xyz[3 * x + k] - xyz[3 * u + k]) * (xyz[3 * y + k] - xyz[3 * v + k]);
+  return sum;
+}
+
+}  // namespace
+
+// What an automorphism must keep to keep the 3D arrangement, measured once on
+// the input geometry: every non-planar centre keeps its handedness, or every
+// one inverts (a mirror image: enantiotopic nuclei give the same couplings in
+// an achiral solvent), and the cis/trans relation across every non-aromatic
+// double bond is kept. Planar or flat (2D) centres are not tested.
+struct CompoundIdentity::GeometryTest {
+  struct Centre {
+    unsigned atom;
+    std::vector<unsigned> neighbours;
+    bool positive;  // sign of the handedness in the input
+  };
+  struct DoubleBond {
+    unsigned u, v, x, y;  // x on u, y on v
+    bool positive;        // sign of (x - u).(y - v) in the input
+  };
+  std::vector<double> xyz;
+  std::vector<Centre> centres;
+  std::vector<DoubleBond> bonds;
+
+  GeometryTest(OpenBabel::OBMol& mol, bool has_3d) : xyz(coordinates(mol)) {
+    if (has_3d) {
+      FOR_ATOMS_OF_MOL(atom, mol) {
+        std::vector<unsigned> n;
+        FOR_NBORS_OF_ATOM(nb, &*atom) n.push_back(nb->GetIdx() - 1);
+        if (n.size() < 3) continue;
+        const unsigned c = atom->GetIdx() - 1;
+        const double before = orientation(c, n, nullptr);
+        // Below ~0.1 A^3 the centre is planar (sp2) and has no handedness.
+        if (std::fabs(before) < 0.1) continue;
+        centres.push_back({c, std::move(n), before > 0});
+      }
     }
-  }
-  if (kept > 0 && inverted > 0) return false;
-  FOR_BONDS_OF_MOL(bond, mol) {
-    if (bond->GetBondOrder() != 2 || bond->IsAromatic()) continue;
-    const unsigned u = bond->GetBeginAtomIdx() - 1, v = bond->GetEndAtomIdx() - 1;
-    FOR_NBORS_OF_ATOM(x, bond->GetBeginAtom()) {
-      if (x->GetIdx() - 1 == v) continue;
-      FOR_NBORS_OF_ATOM(y, bond->GetEndAtom()) {
-        if (y->GetIdx() - 1 == u) continue;
-        const unsigned xi = x->GetIdx() - 1, yi = y->GetIdx() - 1;
-        const double before = OpenBabel::dot(pos(mol, xi) - pos(mol, u), pos(mol, yi) - pos(mol, v));
-        const double after = OpenBabel::dot(pos(mol, p[xi]) - pos(mol, p[u]), pos(mol, p[yi]) - pos(mol, p[v]));
-        if (std::fabs(before) > 1e-3 && (before > 0) != (after > 0)) return false;
+    FOR_BONDS_OF_MOL(bond, mol) {
+      if (bond->GetBondOrder() != 2 || bond->IsAromatic()) continue;
+      const unsigned u = bond->GetBeginAtomIdx() - 1, v = bond->GetEndAtomIdx() - 1;
+      FOR_NBORS_OF_ATOM(x, bond->GetBeginAtom()) {
+        if (x->GetIdx() - 1 == v) continue;
+        FOR_NBORS_OF_ATOM(y, bond->GetEndAtom()) {
+          if (y->GetIdx() - 1 == u) continue;
+          const unsigned xi = x->GetIdx() - 1, yi = y->GetIdx() - 1;
+          const double before = dot_of_bonds(xyz, xi, u, yi, v);
+          if (std::fabs(before) > 1e-3) bonds.push_back({u, v, xi, yi, before > 0});
+        }
       }
     }
   }
-  return true;
-}
+
+  // Handedness of centre c with neighbours n, each mapped through p (if given).
+  double orientation(unsigned c, const std::vector<unsigned>& n, const std::vector<unsigned>* p) const {
+    auto m = [&](unsigned a) { return p ? (*p)[a] : a; };
+    const unsigned o = n.size() >= 4 ? m(n[3]) : m(c);
+    return handedness(xyz, m(n[0]), m(n[1]), m(n[2]), o);
+  }
+
+  bool keeps(const std::vector<unsigned>& p) const {
+    int kept = 0, inverted = 0;
+    for (const auto& centre : centres) {
+      bool fixed = p[centre.atom] == centre.atom;
+      for (unsigned x : centre.neighbours) fixed = fixed && p[x] == x;
+      // A centre the permutation leaves in place keeps its sign by construction.
+      const bool positive = fixed ? centre.positive : orientation(centre.atom, centre.neighbours, &p) > 0;
+      (positive == centre.positive ? kept : inverted) += 1;
+      if (kept > 0 && inverted > 0) return false;
+    }
+    for (const auto& b : bonds)
+      if ((dot_of_bonds(xyz, p[b.x], p[b.u], p[b.y], p[b.v]) > 0) != b.positive) return false;
+    return true;
+  }
+};
+
+namespace {
 
 // A SMILES with every tetrahedral mark inverted ('@' <-> '@@'): its mirror image.
 std::string mirrored(const std::string& smiles) {
@@ -152,12 +206,13 @@ CompoundIdentity::CompoundIdentity(const OpenBabel::OBMol& mol, const std::strin
   automorphisms_complete_ =
       OpenBabel::FindAutomorphisms(&mol_, maps, symmetry_class_, OpenBabel::OBBitVec(), kAutomorphismMemory);
   if (!automorphisms_complete_) return;
-  const bool depth = has_depth(mol_);
+  const GeometryTest geometry(mol_, has_depth(mol_));
+  automorphisms_.reserve(maps.size());
   for (const auto& map : maps) {
     std::vector<unsigned> permutation(n);
     for (unsigned i = 0; i < n; ++i) permutation[i] = i;
     for (const auto& [from, to] : map) permutation[from] = to;
-    keeps_geometry_.push_back(keeps_geometry(mol_, permutation, depth));
+    keeps_geometry_.push_back(geometry.keeps(permutation));
     automorphisms_.push_back(std::move(permutation));
   }
 }
@@ -210,6 +265,30 @@ std::string CompoundIdentity::coupling_key(const std::vector<int>& a, const std:
   if (!automorphisms_complete_) {
     const auto [x, y] = image(a, b, nullptr);
     key = "s:" + join(x) + "~" + join(y) + "/" + marked_smiles(a, b);
+  } else if (a.size() == 1 && b.size() == 1) {
+    // The usual case, one nucleus a side: each image is two ranks packed in
+    // one integer (smaller first), so the orbit over thousands of
+    // automorphisms needs no allocation per image. Same key as below.
+    const auto& rank = canonical_rank_;
+    const unsigned pa = static_cast<unsigned>(a[0] - 1), pb = static_cast<unsigned>(b[0] - 1);
+    auto packed = [&](unsigned x, unsigned y) {
+      return x <= y ? (std::uint64_t{x} << 32) | y : (std::uint64_t{y} << 32) | x;
+    };
+    std::vector<std::uint64_t> orbit, kept_orbit;
+    orbit.reserve(automorphisms_.size());
+    for (std::size_t i = 0; i < automorphisms_.size(); ++i) {
+      const auto& p = automorphisms_[i];
+      const std::uint64_t image = packed(rank.at(p[pa]), rank.at(p[pb]));
+      orbit.push_back(image);
+      if (keeps_geometry_[i]) kept_orbit.push_back(image);
+    }
+    if (orbit.empty()) orbit.push_back(packed(rank.at(pa), rank.at(pb)));
+    for (auto* v : {&orbit, &kept_orbit}) {
+      std::sort(v->begin(), v->end());
+      v->erase(std::unique(v->begin(), v->end()), v->end());
+    }
+    key = std::to_string(orbit.front() >> 32) + "~" + std::to_string(orbit.front() & 0xffffffffu);
+    if (kept_orbit.size() != orbit.size()) key += "/" + marked_smiles(a, b);
   } else {
     std::set<std::pair<Side, Side>> orbit, kept_orbit;
     for (std::size_t i = 0; i < automorphisms_.size(); ++i) {

@@ -45,6 +45,7 @@ class CompoundIdentity {
 
  private:
   using Side = std::vector<unsigned>;
+  struct GeometryTest;  // which automorphisms keep the 3D arrangement (identity.cc)
   std::pair<Side, Side> image(const std::vector<int>& a, const std::vector<int>& b,
                               const std::vector<unsigned>* permutation) const;
   std::string marked_smiles(const std::vector<int>& a, const std::vector<int>& b) const;

@@ -193,6 +193,7 @@ void read_compound(const Json& c, const StructureSpec& spec, const std::string& 
 
 ImportResult read_json(const std::string& path, const ImportOptions& options) {
   const Json doc = read_json_file(path);
+  json_require_keys(doc, {"format", "version", "compounds"}, path, "");
   if (!doc.is_object() || text_or(doc, "format", path, "") != kFormatName)
     throw Error(fmt::format("not a vicinal library file (\"format\" must be \"{}\")", kFormatName),
                 Location::field_in(path, "format"));
@@ -245,6 +246,7 @@ std::string write_json(const std::vector<Entry>& entries) {
 
 ImportResult read_sdf(const std::string& path, const ImportOptions& options) {
   const std::string text = read_text_file(path);
+  require_utf8_text(text, path);
   ImportResult result;
   // Records are split on "$$$$" lines so that each keeps its exact text.
   std::size_t start = 0, index = 0;
@@ -271,6 +273,7 @@ ImportResult read_sdf(const std::string& path, const ImportOptions& options) {
       result.rejects.push_back({fmt::format("{}: {}", path, context), e.one_line()});
     }
   }
+  if (index == 0) throw Error("the file holds no SDF record", {path}, "export one with 'vicinal library export FILE.sdf'");
   return result;
 }
 

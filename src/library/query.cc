@@ -66,6 +66,14 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
     sql += " AND " + clause;
     binders.push_back([value](Statement& st, int i) { st.bind(i, value); });
   };
+  if (allowed) {
+    if (allowed->empty()) return result;
+    // The matching compounds as a bound JSON array, so that SQLite reads only
+    // their couplings instead of every coupling in the library.
+    std::string ids;
+    for (const auto id : *allowed) ids += (ids.empty() ? "[" : ",") + std::to_string(id);
+    add("c.id IN (SELECT value FROM json_each(?))", ids + "]");
+  }
   if (!q.name.empty()) add("instr(lower(c.name), lower(?)) > 0", q.name);
   if (!q.inchikey.empty()) {
     if (q.inchikey.size() == 14) add("substr(c.inchikey, 1, 14) = ?", q.inchikey);
@@ -95,7 +103,6 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
   Statement st(db, sql);
   for (std::size_t i = 0; i < binders.size(); ++i) binders[i](st, static_cast<int>(i) + 1);
   while (st.step()) {
-    if (allowed && !allowed->count(st.integer(0))) continue;
     FoundCoupling f;
     f.compound_id = st.integer(0);
     f.compound = st.text(1);

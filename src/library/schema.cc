@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cctype>
 
+#include "core/atomic_file.h"
 #include "core/csv.h"
 #include "core/data_dir.h"
 #include "core/error.h"
@@ -38,7 +39,7 @@ std::string pre_upgrade_backup_path(const std::string& library_path, int version
       .string();
 }
 
-UpgradeReport upgrade_schema(Database& db) {
+UpgradeReport upgrade_schema(Database& db, const std::function<void()>& complete) {
   const auto migrations = shipped_migrations();
   const int target = static_cast<int>(migrations.size());
   UpgradeReport report;
@@ -57,7 +58,9 @@ UpgradeReport upgrade_schema(Database& db) {
                   "point --library at a vicinal library or a new file");
   } else {
     report.backup_path = pre_upgrade_backup_path(db.path(), report.from_version);
-    if (!std::filesystem::exists(report.backup_path)) db.backup_to(report.backup_path);
+    if (!std::filesystem::exists(report.backup_path))
+      write_via_temporary(report.backup_path,
+                          [&](const std::filesystem::path& temporary) { db.backup_to(temporary.string()); });
   }
 
   for (const auto& m : migrations) {
@@ -66,7 +69,8 @@ UpgradeReport upgrade_schema(Database& db) {
     // Another process may have upgraded the file while we waited for the lock.
     if (db.user_version() >= m.version) continue;
     db.exec(read_text_file(m.path.string()));
-    db.exec(fmt::format("PRAGMA user_version = {}", m.version));
+    db.exec(fmt::format("PRAGMA user_version = {}", m.version));  // an int; PRAGMA takes no bound parameters
+    if (m.version == target && complete) complete();
     tx.commit();
     report.to_version = m.version;
   }

@@ -5,6 +5,7 @@
 #pragma once
 
 #include <filesystem>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -29,8 +30,12 @@ struct UpgradeReport {
 };
 
 // Brings `db` to the current version. A library at version 0 must be empty
-// (a new file); anything else at 0 is not ours and is refused.
-UpgradeReport upgrade_schema(Database& db);
+// (a new file); anything else at 0 is not ours and is refused. `complete`, if
+// given, runs inside the last migration's transaction (to fill what the SQL
+// cannot), so an interrupted upgrade leaves the old version or the whole new one.
+// The copy of an older library is written under a temporary name and renamed,
+// so a copy that exists is always whole.
+UpgradeReport upgrade_schema(Database& db, const std::function<void()>& complete = {});
 
 // Where the copy made before upgrading a library at `version` goes.
 std::string pre_upgrade_backup_path(const std::string& library_path, int version);

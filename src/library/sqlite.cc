@@ -121,14 +121,29 @@ Database::Database(const std::string& path, Mode mode) : path_(path) {
   }
   sqlite3_extended_result_codes(db_, 1);
   sqlite3_busy_timeout(db_, kBusyTimeoutMs);
-  // Reading the header fails here if the file is not a database at all.
-  exec("PRAGMA foreign_keys = ON");
-  if (mode != Mode::ReadOnly) {
-    // journal_mode=WAL needs the write lock the first time; retry like writes do.
-    const int wal = exec_retrying(*this, "PRAGMA journal_mode = WAL", std::chrono::milliseconds(60000));
-    if (wal != SQLITE_OK) fail(wal, "switching to WAL journal");
+  // A throwing constructor never reaches the destructor: close the connection
+  // here, or a damaged file leaks it (found by the sanitizer run).
+  try {
+    // Reading the header fails here if the file is not a database at all.
+    exec("PRAGMA foreign_keys = ON");
+    // Another program's database (tables, but no vicinal schema version) is
+    // refused by upgrade_schema; its journal mode must not be changed first.
+    const bool foreign = [&] {
+      Statement tables(*this, "SELECT count(*) FROM sqlite_master");
+      tables.step();
+      return user_version() == 0 && tables.integer(0) > 0;
+    }();
+    if (mode != Mode::ReadOnly && !foreign) {
+      // journal_mode=WAL needs the write lock the first time; retry like writes do.
+      const int wal = exec_retrying(*this, "PRAGMA journal_mode = WAL", std::chrono::milliseconds(60000));
+      if (wal != SQLITE_OK) fail(wal, "switching to WAL journal");
+    }
+    exec("PRAGMA synchronous = FULL");
+  } catch (...) {
+    sqlite3_close_v2(db_);
+    db_ = nullptr;
+    throw;
   }
-  exec("PRAGMA synchronous = FULL");
 }
 
 Database::~Database() { sqlite3_close_v2(db_); }

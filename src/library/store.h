@@ -49,6 +49,7 @@ class Library {
   // copy beside it, even for reading: queries need the current tables.
   // vicinal::Error when the file is missing, not a library, or newer than
   // this program.
+  // An empty file is refused too (SQLite would take it for a new database).
   explicit Library(const std::string& path);
   // Creates the file if needed and brings it to the current schema.
   static std::unique_ptr<Library> create(const std::string& path);
@@ -68,11 +69,10 @@ class Library {
     return library::read_entries(*db_, compound_ids);
   }
 
-  // Fills compound_fingerprints for compounds that have none (new compounds,
-  // libraries upgraded from version 1). Returns how many were added.
-  int fill_fingerprints();
-
  private:
+  // Fills compound_fingerprints for compounds that have none (libraries
+  // upgraded from version 1) inside the caller's write transaction.
+  int insert_missing_fingerprints();
   Library(std::unique_ptr<Database> db, std::string path);
   std::unique_ptr<Database> db_;
   std::string path_;

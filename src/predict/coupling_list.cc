@@ -73,7 +73,7 @@ CouplingRow CouplingRowParser::parse(const CsvRow& row) const {
   out.nuclei = split_nuclei(row.fields[nuclei_], table_.where(row, nuclei_));
   const auto number = [&](std::optional<std::size_t> column) -> std::optional<double> {
     if (!column || trim(row.fields[*column]).empty()) return std::nullopt;
-    return parse_double(trim(row.fields[*column]), table_.where(row, *column));
+    return parse_coupling_hz(trim(row.fields[*column]), table_.where(row, *column));
   };
   out.j_hz = number(j_);
   if (require_j_ && !out.j_hz)

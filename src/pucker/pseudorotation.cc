@@ -33,7 +33,7 @@ Pseudorotation pseudorotation_from_torsions(const std::array<double, 5>& nu) {
   return {phase, amplitude};
 }
 
-std::string envelope_name(double phase_deg, const std::array<std::string, 5>& ring_atoms) {
+std::string envelope_name(double phase_deg, const std::array<std::string, 5>& ring_atoms, bool endo_exo_swapped) {
   const double p = wrap_phase_deg(phase_deg);
   std::string best;
   double best_distance = 1e9;
@@ -44,7 +44,7 @@ std::string envelope_name(double phase_deg, const std::array<std::string, 5>& ri
       d = std::min(d, 360.0 - d);
       if (d < best_distance) {
         best_distance = d;
-        best = ring_atoms[i] + (side == 0 ? "-endo" : "-exo");
+        best = ring_atoms[i] + ((side == 0) != endo_exo_swapped ? "-endo" : "-exo");
       }
     }
   return best;

@@ -30,7 +30,10 @@ double wrap_phase_deg(double phase_deg);
 // The nearest envelope form, e.g. "C3'-endo" for P near 18 with the furanose
 // atom list: atom i lies out of the plane of the other four where the torsion
 // opposite it vanishes, which the formula places at P = 90 - 144 i (endo, the
-// side of positive nu_j ordering) and 180 degrees further (exo).
-std::string envelope_name(double phase_deg, const std::array<std::string, 5>& ring_atoms);
+// side of positive nu_j ordering) and 180 degrees further (exo). Rings whose
+// trade convention names the sides the other way round (proline: endo = towards
+// the carbonyl carbon) pass `endo_exo_swapped`.
+std::string envelope_name(double phase_deg, const std::array<std::string, 5>& ring_atoms,
+                          bool endo_exo_swapped = false);
 
 }  // namespace vicinal::pucker

@@ -72,5 +72,17 @@ TEST(Pseudorotation, EnvelopeNames) {
   EXPECT_EQ(envelope_name(-18, kFuranose), "C2'-exo");
 }
 
+TEST(Pseudorotation, ProlineNamesTheSidesTheOtherWay) {
+  // Proline calls C-gamma-endo the pucker towards the carbonyl carbon, chi1 > 0,
+  // P near 180 with this atom order (common practice, from memory; checked on
+  // RDKit geometries in tests/validation/proline_pucker_rdkit.py).
+  const std::array<std::string, 5> proline = {"N", "CA", "CB", "CG", "CD"};
+  EXPECT_EQ(envelope_name(198, proline, true), "CG-endo");
+  EXPECT_EQ(envelope_name(18, proline, true), "CG-exo");
+  EXPECT_EQ(envelope_name(162, proline, true), "CB-exo");
+  EXPECT_GT(endocyclic_torsions_deg(198, 38)[1], 0);  // chi1 = nu1 positive for endo
+  EXPECT_LT(endocyclic_torsions_deg(18, 38)[1], 0);
+}
+
 }  // namespace
 }  // namespace vicinal::pucker

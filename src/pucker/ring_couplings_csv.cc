@@ -30,8 +30,8 @@ std::vector<MeasuredRingCoupling> from_table(const CsvTable& table, const RingMo
       if (seen.coupling == m.coupling)
         throw Error(fmt::format("coupling {} is listed twice (first on line {})", name, seen.line),
                     table.where(row, name_col), "give each ring coupling once");
-    m.j_hz = std::fabs(parse_double(row.fields[j_col], table.where(row, j_col)));
-    m.sigma_hz = parse_double(row.fields[sigma_col], table.where(row, sigma_col));
+    m.j_hz = std::fabs(parse_coupling_hz(row.fields[j_col], table.where(row, j_col)));
+    m.sigma_hz = parse_coupling_hz(row.fields[sigma_col], table.where(row, sigma_col));
     if (!(m.sigma_hz > 0))
       throw Error("sigma_hz must be positive", table.where(row, sigma_col),
                   "give the measurement uncertainty, e.g. 0.3");

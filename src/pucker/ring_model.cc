@@ -20,6 +20,7 @@ std::string optional_string(const Json& o, const std::string& key) {
 }
 
 RingSubstituent read_substituent(const Json& s, const std::string& file, const std::string& at) {
+  json_require_keys(s, {"atom", "on", "element", "beta", "orientation"}, file, at);
   RingSubstituent r;
   r.atom = json_string(json_member(s, "atom", file, at), file, at + ".atom");
   r.on = json_string(json_member(s, "on", file, at), file, at + ".on");
@@ -40,6 +41,10 @@ RingSubstituent read_substituent(const Json& s, const std::string& file, const s
 
 RingModel RingModel::load_file(const std::string& path) {
   const Json doc = read_json_file(path);
+  // Ring files are written by hand: a misspelt key must not be silently ignored.
+  json_require_keys(doc, {"id", "title", "ring_atoms", "torsion_convention", "endo_exo_swapped", "karplus_set",
+                          "relations_source", "substituent_notes", "proton_names", "prochirality", "couplings"},
+                    path, "");
   RingModel m;
   m.file = path;
   m.id = json_string(json_member(doc, "id", path, ""), path, "id");
@@ -48,6 +53,11 @@ RingModel RingModel::load_file(const std::string& path) {
   m.torsion_convention = optional_string(doc, "torsion_convention");
   m.relations_source = json_string(json_member(doc, "relations_source", path, ""), path, "relations_source");
   m.substituent_notes = optional_string(doc, "substituent_notes");
+  if (doc.contains("endo_exo_swapped")) {
+    if (!doc["endo_exo_swapped"].is_boolean())
+      throw Error("endo_exo_swapped must be true or false", Location::field_in(path, "endo_exo_swapped"));
+    m.endo_exo_swapped = doc["endo_exo_swapped"].get<bool>();
+  }
   const Json& atoms = json_member(doc, "ring_atoms", path, "");
   if (!atoms.is_array() || atoms.size() != 5)
     throw Error("ring_atoms must list the five ring atoms", Location::field_in(path, "ring_atoms"));
@@ -58,6 +68,7 @@ RingModel RingModel::load_file(const std::string& path) {
   for (std::size_t i = 0; i < couplings.size(); ++i) {
     const std::string at = fmt::format("couplings[{}]", i);
     const Json& c = couplings[i];
+    json_require_keys(c, {"name", "nu", "a", "b", "source", "karplus_set", "substituents"}, path, at);
     RingCoupling r;
     r.name = json_string(json_member(c, "name", path, at), path, at + ".name");
     const double nu = json_number(json_member(c, "nu", path, at), path, at + ".nu");
@@ -101,6 +112,10 @@ std::size_t RingModel::index_of(const std::string& name) const {
   for (const auto& c : couplings) names.push_back(c.name);
   throw Error(fmt::format("ring '{}' has no coupling '{}'", id, name), {},
               fmt::format("its couplings are {}", fmt::join(names, ", ")));
+}
+
+std::string RingModel::envelope(double phase_deg) const {
+  return envelope_name(phase_deg, ring_atoms, endo_exo_swapped);
 }
 
 double hh_dihedral_deg(const RingCoupling& coupling, double phase_deg, double amplitude_deg) {

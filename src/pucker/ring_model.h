@@ -32,7 +32,11 @@ struct RingCoupling {
 struct RingModel {
   std::string id, title, torsion_convention, karplus_set, relations_source, substituent_notes, file;
   std::array<std::string, 5> ring_atoms;
+  bool endo_exo_swapped = false;  // the ring's trade names the envelope sides the other way (see envelope_name)
   std::vector<RingCoupling> couplings;
+
+  // The nearest envelope form under the ring's own naming, e.g. "CG-endo".
+  std::string envelope(double phase_deg) const;
 
   // A shipped ring (db/pucker/<id>.json) or, when `id_or_path` names a file,
   // that file. vicinal::Error lists the shipped ids when it is unknown.

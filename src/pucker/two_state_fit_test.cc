@@ -53,6 +53,25 @@ TEST(TwoStateFit, RecoversFreeTiedAmplitude) {
   EXPECT_EQ(fit.free_parameters, 4);
 }
 
+TEST(TwoStateFit, RecoversAProlineExoEndoEquilibrium) {
+  // Ten ring couplings of the pyrrolidine ring: both phases, one amplitude and
+  // the fraction of C-gamma-endo are all free, and all come back.
+  const RingModel ring = RingModel::load("proline");
+  const RingCouplings model(ring, karplus::SetCatalog::shipped());
+  const auto measured = synthetic(model, 18.0, 38.0, 190.0, 38.0, 0.7, 0.3);
+  ASSERT_EQ(measured.size(), 10u);
+  TwoStateOptions o;
+  o.fixed = {false, false, false, false, false};
+  o.tie_amplitudes = true;
+  const auto fit = fit_two_state(model, measured, o);
+  EXPECT_NEAR(fit.value[kPhaseN], 18.0, 0.5);
+  EXPECT_NEAR(fit.value[kPhaseS], 190.0, 0.5);
+  EXPECT_NEAR(fit.value[kAmplitudeN], 38.0, 0.2);
+  EXPECT_NEAR(fit.value[kFractionS], 0.7, 0.005);
+  EXPECT_EQ(ring.envelope(fit.value[kPhaseN]), "CG-exo");
+  EXPECT_EQ(ring.envelope(fit.value[kPhaseS]), "CG-endo");
+}
+
 TEST(TwoStateFit, MonteCarloIsReproducibleWithASeed) {
   const auto model = deoxyribose();
   const auto measured = synthetic(model, 9.0, 36.0, 162.0, 36.0, 0.6, 0.3);

@@ -667,7 +667,10 @@ void save_figure(const Figure& figure, const std::filesystem::path& path) {
     write_file_atomically(path, figure_svg(figure));
     return;
   }
-  const auto [w, h] = page_size(figure);
+  // Plain variables, not a structured binding: clang before 16 (the fuzz
+  // build's compiler) cannot capture structured bindings in a lambda.
+  const auto page = page_size(figure);
+  const double w = page.first, h = page.second;
   write_via_temporary(path, [&](const std::filesystem::path& temporary) {
     if (ext == ".pdf") {
       Surface surface(cairo_pdf_surface_create(temporary.c_str(), w, h));

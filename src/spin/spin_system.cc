@@ -12,6 +12,13 @@ namespace vicinal::spin {
 namespace {
 
 constexpr int kMaxCount = 64;  // more equivalent nuclei than any molecule fragment needs
+// Bounds far beyond any real spectrum (common practice, no source): the largest
+// magnets are near 1.2 GHz, shift ranges of heavy nuclei span some 10^4 ppm and
+// one-bond couplings to metals reach a few kHz. Larger values are damaged input
+// (a 40-digit number, say), not data.
+constexpr double kMaxFieldMhz = 10000;
+constexpr double kMaxShiftPpm = 100000;
+constexpr double kMaxCouplingHz = 100000;
 
 Location field(const std::string& source, const std::string& path) {
   return Location::field_in(source, path);
@@ -50,8 +57,8 @@ double SpinSystem::coupling_hz(std::size_t i, std::size_t j) const {
 }
 
 void check_spin_system(const SpinSystem& s, const std::string& source) {
-  if (!(s.field_mhz > 0) || !std::isfinite(s.field_mhz))
-    throw Error(fmt::format("field must be a positive frequency in MHz, found {}", s.field_mhz),
+  if (!(s.field_mhz > 0) || !(s.field_mhz <= kMaxFieldMhz))
+    throw Error(fmt::format("field must be a 1H frequency from 0 to {} MHz, found {:g}", kMaxFieldMhz, s.field_mhz),
                 field(source, "field_mhz"));
   if (s.groups.empty()) throw Error("no spins given", field(source, "spins"));
   std::set<std::string> labels;
@@ -65,7 +72,9 @@ void check_spin_system(const SpinSystem& s, const std::string& source) {
                   "give every group its own label; use 'count' for equivalent nuclei");
     if (g.count < 1 || g.count > kMaxCount)
       throw Error(fmt::format("count must be from 1 to {}", kMaxCount), field(source, at + ".count"));
-    if (!std::isfinite(g.shift_ppm)) throw Error("shift is not finite", field(source, at + ".shift_ppm"));
+    if (!(std::fabs(g.shift_ppm) <= kMaxShiftPpm))
+      throw Error(fmt::format("shift {:g} ppm is outside -{} to {} ppm", g.shift_ppm, kMaxShiftPpm, kMaxShiftPpm),
+                  field(source, at + ".shift_ppm"));
     observed = observed || s.is_observed(g);
   }
   if (!observed)
@@ -77,7 +86,9 @@ void check_spin_system(const SpinSystem& s, const std::string& source) {
     const std::string at = fmt::format("couplings[{}]", k);
     if (c.a >= s.groups.size() || c.b >= s.groups.size())
       throw Error("coupling refers to a missing group", field(source, at + ".between"));
-    if (!std::isfinite(c.j_hz)) throw Error("coupling is not finite", field(source, at + ".j_hz"));
+    if (!(std::fabs(c.j_hz) <= kMaxCouplingHz))
+      throw Error(fmt::format("coupling {:g} Hz is outside -{} to {} Hz", c.j_hz, kMaxCouplingHz, kMaxCouplingHz),
+                  field(source, at + ".j_hz"));
     if (c.a == c.b && s.groups[c.a].count < 2)
       throw Error(fmt::format("'{}' is a single nucleus and cannot couple to itself", s.groups[c.a].label),
                   field(source, at + ".between"));
@@ -90,6 +101,8 @@ void check_spin_system(const SpinSystem& s, const std::string& source) {
 
 SpinSystem spin_system_from_json(const Json& doc, const std::string& source) {
   if (!doc.is_object()) throw Error("a spin system must be a JSON object", {source});
+  // A misspelt key ("shift" for "shift_ppm") would otherwise be dropped without a word.
+  json_require_keys(doc, {"description", "field_mhz", "observe", "spins", "couplings"}, source, "");
   const auto& table = NuclearTable::shipped();
   SpinSystem s;
   s.field_mhz = json_number(json_member(doc, "field_mhz", source, ""), source, "field_mhz");
@@ -105,6 +118,7 @@ SpinSystem spin_system_from_json(const Json& doc, const std::string& source) {
   for (std::size_t i = 0; i < spins.size(); ++i) {
     const std::string at = fmt::format("spins[{}]", i);
     const Json& item = spins[i];
+    json_require_keys(item, {"label", "isotope", "shift_ppm", "count"}, source, at);
     SpinGroup g;
     g.label = json_string(json_member(item, "label", source, at), source, at + ".label");
     const std::string isotope = json_string(json_member(item, "isotope", source, at), source, at + ".isotope");
@@ -131,6 +145,7 @@ SpinSystem spin_system_from_json(const Json& doc, const std::string& source) {
     if (!couplings.is_array()) throw Error("'couplings' must be a list", field(source, "couplings"));
     for (std::size_t k = 0; k < couplings.size(); ++k) {
       const std::string at = fmt::format("couplings[{}]", k);
+      json_require_keys(couplings[k], {"between", "j_hz"}, source, at);
       const Json& between = json_member(couplings[k], "between", source, at);
       if (!between.is_array() || between.size() != 2)
         throw Error("'between' must be a list of two labels", field(source, at + ".between"));

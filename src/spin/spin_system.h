@@ -4,6 +4,8 @@
 //   {"field_mhz": 400, "observe": "1H",
 //    "spins": [{"label": "A", "isotope": "1H", "shift_ppm": 3.95, "count": 1}, ...],
 //    "couplings": [{"between": ["A", "M"], "j_hz": 1.1}, ...]}
+// plus an optional "description". Unknown keys are refused, so that a misspelt
+// one ("shift" for "shift_ppm") is not silently lost.
 #pragma once
 
 #include <cstddef>

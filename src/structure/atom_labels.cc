@@ -7,6 +7,7 @@
 #include <openbabel/residue.h>
 
 #include <cctype>
+#include <limits>
 #include <set>
 #include <sstream>
 
@@ -37,6 +38,19 @@ void AtomLabels::add(const std::string& label, int atom, const Location& where) 
   first_label_.emplace(atom, name);
 }
 
+namespace {
+
+// An atom number as written, narrowed to int without wrapping around
+// (2147483648 must not become -2147483648); add() then checks the range.
+int atom_number(std::string_view text, const Location& where) {
+  const long atom = parse_long(text, where);
+  if (atom < std::numeric_limits<int>::min() || atom > std::numeric_limits<int>::max())
+    throw Error(fmt::format("atom {} is out of range", atom), where, "atoms are numbered from 1");
+  return static_cast<int>(atom);
+}
+
+}  // namespace
+
 void AtomLabels::merge(const AtomLabels& other) {
   for (const auto& [label, atom] : other.by_label_) add(label, atom, Location(other.source_));
 }
@@ -46,10 +60,9 @@ AtomLabels AtomLabels::from_csv(const std::string& path, int atom_count) {
   const std::size_t label_col = table.require_column("label");
   const std::size_t atom_col = table.require_column("atom");
   AtomLabels labels(atom_count, path);
-  for (const auto& row : table.rows()) {
-    const long atom = parse_long(row.fields[atom_col], table.where(row, atom_col));
-    labels.add(row.fields[label_col], static_cast<int>(atom), table.where(row, label_col));
-  }
+  for (const auto& row : table.rows())
+    labels.add(row.fields[label_col], atom_number(row.fields[atom_col], table.where(row, atom_col)),
+               table.where(row, label_col));
   return labels;
 }
 
@@ -69,7 +82,7 @@ AtomLabels AtomLabels::from_sdf_field(const OpenBabel::OBMol& mol, const std::st
     Location where = Location::field_in(source, fmt::format("{} line {}", kSdfLabelField, n));
     if (!(words >> label >> atom_text))
       throw Error(fmt::format("'{}' is not a 'label atom' pair", line), where);
-    labels.add(label, static_cast<int>(parse_long(atom_text, where)), where);
+    labels.add(label, atom_number(atom_text, where), where);
   }
   return labels;
 }

@@ -17,6 +17,7 @@
 #include "structure/frame_reader.h"
 #include "structure/molecule_format.h"
 #include "structure/openbabel_log.h"
+#include "structure/openbabel_read.h"
 
 namespace vicinal::structure {
 
@@ -80,8 +81,11 @@ void require_same_atoms(const std::vector<int>& first, OpenBabel::OBMol& mol, st
 std::optional<double> data_number(OpenBabel::OBMol& mol, const char* field, std::size_t frame, const std::string& path) {
   auto* data = dynamic_cast<OpenBabel::OBPairData*>(mol.GetData(field));
   if (!data) return std::nullopt;
-  return parse_double(trim(data->GetValue()),
-                      Location::field_in(path, fmt::format("{} of frame {}", field, frame)));
+  const Location at = Location::field_in(path, fmt::format("{} of frame {}", field, frame));
+  const double value = parse_double(trim(data->GetValue()), at);
+  // Conformer energies span a few tens of kcal/mol; 10^6 is damage, not data.
+  if (std::fabs(value) > 1e6) throw Error(fmt::format("{:g} is out of range", value), at);
+  return value;
 }
 
 // Frames of SDF or MOL2 through Open Babel, with our data fields.
@@ -97,7 +101,7 @@ Ensemble read_openbabel_frames(const std::string& path, const MoleculeFormat& fo
   for (std::size_t frame = 1;; ++frame) {
     OpenBabel::OBMol mol;
     LogCapture log;
-    const bool ok = frame == 1 ? conv.Read(&mol, &in) : conv.Read(&mol);
+    const bool ok = guarded_read([&] { return frame == 1 ? conv.Read(&mol, &in) : conv.Read(&mol); }, path, format.name);
     if (!ok || mol.NumAtoms() == 0) {
       if (frame == 1 || !log.errors().empty())
         throw Error(fmt::format("could not read {} of the {} file{}", frame == 1 ? "a structure" : fmt::format("frame {}", frame),
@@ -153,7 +157,7 @@ Ensemble read_trajectory(const std::string& path, const MoleculeFormat& format, 
     LogCapture log;
     OpenBabel::OBConversion conv;
     conv.SetInFormat(format.openbabel_id.c_str());
-    if (!conv.ReadFile(&first, path) || first.NumAtoms() == 0)
+    if (!guarded_read([&] { return conv.ReadFile(&first, path); }, path, format.name) || first.NumAtoms() == 0)
       throw Error(fmt::format("could not read a {} structure{}", format.name,
                               log.errors().empty() ? "" : ": " + log.errors().front()),
                   Location(path), "the file may be truncated");
@@ -166,7 +170,7 @@ Ensemble read_trajectory(const std::string& path, const MoleculeFormat& format, 
   OpenBabel::OBMol heavy(first);
   if (add_h) add_missing_hydrogens(first);
   e.topology = first;
-  stream_frames(path, elements, [&](std::size_t, std::span<const double> xyz) {
+  stream_frames(path, elements, [&](std::size_t index, std::span<const double> xyz) {
     if (!add_h) {
       e.xyz.insert(e.xyz.end(), xyz.begin(), xyz.end());
       return;
@@ -174,7 +178,14 @@ Ensemble read_trajectory(const std::string& path, const MoleculeFormat& format, 
     OpenBabel::OBMol frame(heavy);
     frame.SetCoordinates(const_cast<double*>(xyz.data()));
     add_missing_hydrogens(frame);
-    e.add_frame(coordinates_of(frame));
+    // Open Babel can add a different number of hydrogens to a damaged frame
+    // (found by the frame_reader fuzz target): bad input, not an internal error.
+    const std::vector<double> coords = coordinates_of(frame);
+    if (coords.size() != 3 * static_cast<std::size_t>(e.atom_count()))
+      throw Error(fmt::format("frame {}: adding the missing hydrogens gave {} atoms, but the first frame has {}",
+                              index + 1, coords.size() / 3, e.atom_count()),
+                  Location(path), "give a trajectory with explicit hydrogens in every frame");
+    e.add_frame(coords);
   });
   // Open Babel's own view of frame 0 is the topology; keep them identical.
   if (!add_h) e.topology.SetCoordinates(e.xyz.data());
@@ -192,8 +203,10 @@ Ensemble read_ensemble(const std::string& path, ReadNotes* notes) {
   const MoleculeFormat format = molecule_format_of(path);
   require_readable_file(path);
   if (format.openbabel_id == "smi") return single_frame(read_molecule(path, notes), path);
-  if (format.openbabel_id == "pdb" || format.openbabel_id == "xyz") return read_trajectory(path, format, notes);
-  return read_openbabel_frames(path, format, notes);
+  Ensemble e = format.openbabel_id == "pdb" || format.openbabel_id == "xyz" ? read_trajectory(path, format, notes)
+                                                                            : read_openbabel_frames(path, format, notes);
+  require_sane_coordinates(e.xyz, static_cast<std::size_t>(e.atom_count()), path);
+  return e;
 }
 
 std::vector<double> boltzmann_weights(std::span<const double> energy_kcal_mol, double temperature_k) {

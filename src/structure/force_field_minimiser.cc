@@ -44,6 +44,8 @@ double minimise_fully(OpenBabel::OBForceField& ff, OpenBabel::OBMol& mol, int ma
   options.gradient_tolerance = 1e-10;
   options.function_tolerance = 1e-12;
   options.parameter_tolerance = 1e-12;
+  // Modules never print: without this Ceres logs failed line searches to stderr.
+  options.logging_type = ceres::SILENT;
   ceres::GradientProblemSolver::Summary summary;
   ceres::GradientProblem problem(new ForceFieldEnergy(ff, mol));
   ceres::Solve(options, problem, xyz.data(), &summary);

@@ -35,6 +35,7 @@ class LineReader {
         begin_ = stop + 1;
         ++number_;
         if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+        require_no_bare_cr(line);
         return true;
       }
       if (eof_) {
@@ -43,6 +44,7 @@ class LineReader {
         begin_ = end_;
         ++number_;
         if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+        require_no_bare_cr(line);
         return true;
       }
       // Move the partial line to the front, grow if one line fills the buffer, refill.
@@ -54,6 +56,13 @@ class LineReader {
       if (got == 0) eof_ = true;
       end_ += got;
     }
+  }
+
+  // Lines end in LF or CRLF; a CR alone inside a line means old Mac line ends,
+  // which would otherwise be misread as one long line.
+  void require_no_bare_cr(std::string_view line) const {
+    if (line.find('\r') != std::string_view::npos)
+      throw Error("a line ends in a bare carriage return (CR)", here(), "save the file with LF or CRLF line ends");
   }
 
   long line_number() const { return number_; }

@@ -21,6 +21,7 @@
 #include "structure/force_field_minimiser.h"
 #include "structure/molecule_format.h"
 #include "structure/openbabel_log.h"
+#include "structure/openbabel_read.h"
 
 namespace vicinal::structure {
 
@@ -235,13 +236,17 @@ OpenBabel::OBMol read_molecule(const std::string& path, ReadNotes* notes) {
   LogCapture log;
   OpenBabel::OBConversion conv;
   conv.SetInFormat(format.openbabel_id.c_str());
-  const bool ok = conv.ReadFile(&mol, path);
+  const bool ok = guarded_read([&] { return conv.ReadFile(&mol, path); }, path, format.name);
   if (!ok || mol.NumAtoms() == 0 || !log.errors().empty())
     throw Error(fmt::format("could not read a {} structure{}", format.name,
                             log.errors().empty() ? "" : ": " + join_messages(log.errors())),
                 Location(path), "the file may be truncated or not in the format its extension says");
   if (notes)
     for (const auto& w : log.warnings()) notes->messages.push_back(w);
+  std::vector<double> xyz;
+  for (auto it = mol.BeginAtoms(); it != mol.EndAtoms(); ++it)
+    for (double v : {(*it)->GetX(), (*it)->GetY(), (*it)->GetZ()}) xyz.push_back(v);
+  require_sane_coordinates(xyz, mol.NumAtoms(), path);
   if (mol.GetDimension() != 3 || !mol.HasNonZeroCoords()) {
     make_hydrogens_explicit(mol, notes);
     build_3d_checked(mol, fmt::format("the structure in {}", path), notes);

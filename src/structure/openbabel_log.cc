@@ -24,7 +24,11 @@ std::vector<std::string> tidy(const std::vector<std::string>& raw) {
     const auto first = line.find_first_not_of(" =#*");
     const auto last = line.find_last_not_of(" =#*");
     if (first == std::string::npos) continue;
-    out.push_back(line.substr(first, last - first + 1));
+    // Messages quote the input line; a damaged file can make that megabytes long.
+    constexpr std::size_t kLongest = 300;
+    std::string words = line.substr(first, last - first + 1);
+    if (words.size() > kLongest) words = words.substr(0, kLongest) + "...";
+    out.push_back(std::move(words));
   }
   return out;
 }

@@ -20,6 +20,41 @@ run 0 --json karplus calibrate --points pairs.csv --bootstrap 50 --seed 3
 [[ $(json_get 'd["coefficients"][0]["bootstrap_low"]') == "$low" ]] || fail "bootstrap not reproducible"
 json_get 'len(d["comparison"]) > 0' | grep -qx True || fail "no published set compared"
 
+# The report page: coefficients with bootstrap intervals, the comparison with
+# published sets, the points with fitted and published curves, the residuals.
+run 0 karplus calibrate --points pairs.csv --bootstrap 50 --seed 3 --like hh-karplus-1963 --report "$WORK/kr"
+for f in calibration.json report.html figures/calibration-curves.svg figures/calibration-curves.pdf \
+         figures/calibration-residuals.png tables/calibration-coefficients.csv tables/calibration-comparison.csv; do
+  [[ -s "$WORK/kr/$f" ]] || fail "report file $f missing"
+done
+for id in summary coefficients comparison provenance; do contains kr/report.html "<section id=\"$id\">"; done
+[[ $(grep -o "<figure" kr/report.html | wc -l) -eq 2 ]] || fail "the calibration page should hold 2 figures"
+contains kr/report.html "hh-karplus-1963"; contains kr/report.html "bootstrap 2.5 %"
+/usr/bin/python3 - "$WORK/kr" <<'PY' || fail "calibration report disagrees with the fit"
+import csv, json, sys
+d = json.load(open(sys.argv[1] + "/calibration.json"))
+assert d["format"] == "vicinal-calibration" and len(d["data"]) == 36
+fitted = [c for c in d["curves"] if c["fitted"]][0]
+# The fitted curve in the document is the fitted model: 7 cos^2 - cos + 1.5 at 0 deg = 7.5 Hz.
+assert abs(fitted["j_hz"][fitted["dihedral_deg"].index(0)] - 7.5) < 0.02, fitted["j_hz"][90]
+assert any(c["label"] == "hh-karplus-1963" and not c["fitted"] for c in d["curves"])
+rows = list(csv.reader(open(sys.argv[1] + "/tables/calibration-coefficients.csv")))
+assert rows[1][0] == "A" and abs(float(rows[1][1]) - 7) < 0.01 and float(rows[1][3]) <= 7 <= float(rows[1][4]), rows[1]
+comp = list(csv.reader(open(sys.argv[1] + "/tables/calibration-comparison.csv")))
+assert comp[1][0] == "this calibration" and len(comp) == 2 + len(d["comparison"])
+PY
+run 0 report "$WORK/kr/calibration.json" --out "$WORK/kr2/report.html"
+cmp -s "$WORK/kr/report.html" "$WORK/kr2/report.html" || fail "page rebuilt from calibration.json differs"
+
+# The shipped example (invented pairs drawn from 8.6 cos^2 - 0.9 cos + 0.5 with
+# two outliers): the bootstrap intervals hold the generating coefficients, and
+# the calibration fits its own data better than the published curves.
+run 0 --json karplus calibrate --points "$VICINAL_DATA_DIR/examples/calibration/rigid-hh-pairs.csv" --like hh-karplus-1963
+json_get 'all(c["bootstrap_low"] <= t <= c["bootstrap_high"] for c, t in zip(d["coefficients"], (8.6, -0.9, 0.5)))' \
+  | grep -qx True || fail "example: generating coefficients outside the bootstrap intervals"
+json_get 'all(d["statistics"]["rmsd_hz"] < s["rmsd_hz"] for s in d["comparison"]) and len(d["comparison"]) == 2' \
+  | grep -qx True || fail "example: comparison"
+
 # Save a set into a user folder and use it by id.
 mkdir -p sets
 export VICINAL_KARPLUS_DIR="$WORK/sets"
@@ -50,12 +85,31 @@ with open("sites.csv", "w") as f:
             c = st["coefficients"]; x = math.cos(math.radians(phi + st["offset_deg"]))
             f.write(f"r{s},{st['id']},{c['A']*x*x + c['B']*x + c['C'] + random.gauss(0, 0.1):.3f},0.1,\n")
 PY
-run 0 --json karplus calibrate --sites sites.csv
+run 0 --json karplus calibrate --sites sites.csv --report "$WORK/sc"
 json_get 'len(d["sites"]) == 20 and len(d["types"]) == 3' | grep -qx True || fail "self-consistent shape"
+# Its report: a figure per type, the coefficient and site tables; rebuilt unchanged.
+for f in self-consistent.json report.html figures/self-consistent-hn-ha-vuister-bax-1993.svg \
+         figures/self-consistent-hn-co-hu-bax-1997.png tables/self-consistent-types.csv tables/self-consistent-sites.csv; do
+  [[ -s "$WORK/sc/$f" ]] || fail "self-consistent report file $f missing"
+done
+[[ $(grep -o "<figure" sc/report.html | wc -l) -eq 3 ]] || fail "the self-consistent page should hold 3 figures"
+for id in summary types sites provenance; do contains sc/report.html "<section id=\"$id\">"; done
+/usr/bin/python3 - "$WORK/sc/self-consistent.json" <<'PY' || fail "self-consistent document"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["format"] == "vicinal-self-consistent" and len(d["curves"]) == 3
+assert sum(len(c["points"]) for c in d["curves"]) == d["n"] == 60
+angles = {s["site"]: s["angle_deg"] for s in d["sites"]}
+assert all(p["angle_deg"] == angles[p["site"]] for c in d["curves"] for p in c["points"])
+PY
+run 0 report "$WORK/sc/self-consistent.json" --out "$WORK/sc2/report.html"
+cmp -s "$WORK/sc/report.html" "$WORK/sc2/report.html" || fail "page rebuilt from self-consistent.json differs"
 
 # Bad input.
 printf "j_hz,sigma_hz,dihedral_deg\n5,0.3,60\n5,0.3,sixty\n" >bad.csv
 run 2 karplus calibrate --points bad.csv; one_line_error; contains err "bad.csv:3"; contains err "dihedral_deg"
+run 2 karplus calibrate --points bad.csv --report "$WORK/never"; one_line_error
+[[ ! -e "$WORK/never" ]] || fail "bad input left a report folder"
 run 2 karplus calibrate --points pairs.csv --loss bisquare; one_line_error
 run 2 karplus calibrate --points pairs.csv --form haasnoot; one_line_error
 run 2 karplus calibrate; one_line_error

@@ -37,6 +37,50 @@ b=$(json_get 'd["parameters"]["P_S"]["sd"]')
 [[ $a == "$b" ]] || fail "Monte Carlo differs with the same seed: $a vs $b"
 json_get 'd["uncertainty_from"]' | grep -q "seed 4" || fail "seed not reported"
 
+# The report page: parameters with uncertainties, the chi^2 map, the couplings
+# figure and the cycle figure; every figure as SVG, PDF and PNG, tables as CSV;
+# `vicinal report` rebuilds the same page from pucker.json alone.
+run 0 pucker fit --ring deoxyribose --couplings "$EX/deoxy-nucleoside.csv" --report "$WORK/pr" --map-step-deg 10
+contains err "report written to $WORK/pr/report.html"
+for f in pucker.json report.html figures/chi2-map.svg figures/chi2-map.pdf figures/chi2-map.png figures/cycle.svg \
+         figures/couplings.png tables/pucker-parameters.csv tables/pucker-couplings.csv tables/pucker.json; do
+  [[ -s "$WORK/pr/$f" ]] || fail "report file $f missing"
+done
+for id in summary parameters ring-couplings provenance; do contains pr/report.html "<section id=\"$id\">"; done
+[[ $(grep -o "<figure" pr/report.html | wc -l) -eq 3 ]] || fail "the pucker page should hold 3 figures"
+contains pr/report.html "chi² over (P_N, P_S)"; contains pr/report.html "Ring couplings around the pseudorotation cycle"
+contains pr/report.html "C2&#39;-endo"; contains pr/report.html "x_S"; lacks pr/report.html "<script"
+contains pr/tables/pucker-parameters.csv "P_S / deg"
+/usr/bin/python3 - "$WORK/pr/pucker.json" <<'PY' || fail "pucker.json does not match the fit"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["format"] == "vicinal-pucker-fit" and d["version"] == 1, d["format"]
+m = d["map"]
+assert len(m["chi2"]) == len(m["phase_n_deg"]) * len(m["phase_s_deg"]), "map grid"
+# The map's smallest value is not below the fitted minimum (the fit is the best point).
+assert min(m["chi2"]) >= d["chi2"] - 1e-6, (min(m["chi2"]), d["chi2"])
+assert 0 < d["parameters"]["x_S"]["sd"] < 0.5
+PY
+run 0 report "$WORK/pr/pucker.json" --out "$WORK/pr2/report.html"
+cmp -s "$WORK/pr/report.html" "$WORK/pr2/report.html" || fail "page rebuilt from pucker.json differs"
+[[ -s "$WORK/pr2/figures/chi2-map.svg" ]] || fail "rebuilt figures missing"
+printf '{"format": "vicinal-pucker-fit", "version": 1, "title": "x"}' >broken.json
+run 2 report broken.json --out "$WORK/broken/report.html"; one_line_error; contains err "broken.json"
+[[ ! -e "$WORK/broken/report.html" ]] || fail "a page was written for a broken document"
+
+# Proline: the pyrrolidine ring (ring torsions and relations checked against
+# RDKit in tests/validation/proline_pucker_rdkit.py). C-gamma-exo at P = 18,
+# C-gamma-endo at P = 198 (endo = towards the carbonyl carbon; common practice, from memory).
+run 0 --json pucker predict --ring proline --phase-deg 18 --amplitude-deg 38
+[[ $(json_get 'd["nearest_envelope"]') == "CG-exo" ]] || fail "proline P 18 should be CG-exo"
+json_get 'd["torsions_deg"][1] < 0' | grep -qx True || fail "chi1 should be negative for CG-exo"
+run 0 --json pucker predict --ring proline --phase-deg 198 --amplitude-deg 38
+[[ $(json_get 'd["nearest_envelope"]') == "CG-endo" ]] || fail "proline P 198 should be CG-endo"
+run 0 --json pucker fit --ring proline --couplings "$EX/proline.csv" --fix none --tie-amplitudes
+json_get '0.5 < d["parameters"]["x_S"]["value"] < 0.85 and 150 < d["parameters"]["P_S"]["value"] < 210' \
+  | grep -qx True || fail "proline example: $(json_get 'd["parameters"]')"
+json_get 'd["parameters"]["P_S"]["nearest_envelope"] in ("CG-endo", "CB-exo")' | grep -qx True || fail "proline South name"
+
 # Ribose: three couplings; with P_N fixed as well the fit still runs.
 run 0 pucker fit --ring ribose --couplings "$EX/ribonucleoside.csv" --fix amplitudes,pn --pn-deg 9
 contains out "P_N = 9"
@@ -44,6 +88,8 @@ contains out "P_N = 9"
 # Bad input: one-line errors naming line and column, exit 2, no half-written map.
 printf "coupling,j_hz,sigma_hz\nH1'-H2',9.1,0.3\nH5'-H4',3,0.3\n" >bad.csv
 run 2 pucker fit --couplings bad.csv; one_line_error; contains err "bad.csv:3"; contains err "'coupling'"
+run 2 pucker fit --couplings bad.csv --report "$WORK/never"; one_line_error
+[[ ! -e "$WORK/never" ]] || fail "bad input left a report folder"
 printf "coupling,j_hz,sigma_hz\nH1'-H2',nine,0.3\n" >bad2.csv
 run 2 pucker fit --couplings bad2.csv; one_line_error; contains err "bad2.csv:2"; contains err "'j_hz'"
 printf "coupling,j_hz,sigma_hz\nH1'-H2',9,0\n" >bad3.csv

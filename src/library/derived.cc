@@ -1,0 +1,154 @@
+#include "library/derived.h"
+
+#include <fmt/format.h>
+
+#include <memory>
+#include <optional>
+
+#include "core/error.h"
+#include "karplus/karplus.h"
+#include "library/entry_builder.h"
+#include "library/records.h"
+#include "predict/j_matrix.h"
+#include "structure/atom_labels.h"
+
+namespace vicinal::library {
+
+namespace {
+
+struct StoredPair {
+  std::int64_t coupling_id = 0, compound_id = 0;
+  std::vector<int> atoms_a, atoms_b;
+  int bond_count = 0;
+  double j_hz = 0;
+  std::optional<double> sigma_hz;
+  bool stereo_unassigned = false;
+  std::string karplus_set;
+};
+
+// The stored structure of a compound, read once for all its couplings.
+struct Structure {
+  OpenBabel::OBMol mol;
+  structure::AtomLabels labels;
+};
+
+}  // namespace
+
+DeriveReport derive_dihedral_intervals(Database& db, const DeriveOptions& options, Progress& progress) {
+  // One write transaction from reading to storing, so that no coupling can
+  // vanish in between.
+  WriteTransaction tx(db);
+  std::vector<StoredPair> pairs;
+  std::map<std::int64_t, std::string> molfiles;
+  {
+    Statement read(db,
+                   "SELECT k.id, s.compound_id, k.atoms_a, k.atoms_b, k.bond_count, k.j_hz, k.sigma_hz, k.assignment, "
+                   "k.karplus_set FROM couplings k JOIN measurement_sets s ON s.id = k.set_id "
+                   "WHERE ?1 = 0 OR s.compound_id = ?1 ORDER BY s.compound_id, k.id");
+    read.bind(1, options.compound_id);
+    while (read.step()) {
+      StoredPair p;
+      p.coupling_id = read.integer(0);
+      p.compound_id = read.integer(1);
+      p.atoms_a = split_atoms(read.text(2), '|');
+      p.atoms_b = split_atoms(read.text(3), '|');
+      p.bond_count = static_cast<int>(read.integer(4));
+      p.j_hz = read.real(5);
+      p.sigma_hz = read.optional_real(6);
+      p.stereo_unassigned = read.text(7) == "stereo-unassigned";
+      p.karplus_set = read.text(8);
+      pairs.push_back(std::move(p));
+    }
+    Statement molfile(db, "SELECT id, molfile FROM compounds WHERE ?1 = 0 OR id = ?1");
+    molfile.bind(1, options.compound_id);
+    while (molfile.step()) molfiles[molfile.integer(0)] = molfile.text(1);
+  }
+
+  DeriveReport report;
+  std::vector<std::pair<std::int64_t, DerivedResult>> results;
+  std::map<std::int64_t, std::unique_ptr<Structure>> structures;
+  progress.start("deriving dihedral intervals", pairs.size());
+  std::size_t done = 0;
+  for (const auto& p : pairs) {
+    progress.advance(++done);
+    if (p.bond_count != 3) {
+      ++report.skipped["not a 3J coupling"];
+      continue;
+    }
+    if (p.stereo_unassigned) {
+      ++report.skipped["stereo-unassigned (which atom is meant is not known)"];
+      continue;
+    }
+    auto& s = structures[p.compound_id];
+    if (!s) {
+      s = std::make_unique<Structure>();
+      const std::string source = fmt::format("the stored structure of compound {}", p.compound_id);
+      s->mol = molecule_from_molfile(molfiles.at(p.compound_id), source);
+      s->labels = structure::AtomLabels::from_sdf_field(s->mol, source);
+    }
+    predict::CouplingSpec spec;
+    try {
+      spec = predict::resolve_coupling(s->mol, s->labels,
+                                       {std::to_string(p.atoms_a.front()), std::to_string(p.atoms_b.front())},
+                                       p.karplus_set.empty() ? options.set_choice : p.karplus_set);
+    } catch (const Error&) {
+      ++report.skipped["no Karplus set fits its path"];
+      continue;
+    }
+    karplus::AngleSolution solution;
+    try {
+      solution = karplus::allowed_dihedrals(*spec.set, p.j_hz, p.sigma_hz.value_or(0.0), kDerivedCoverage,
+                                            spec.karplus_substituents);
+    } catch (const Error&) {
+      ++report.skipped["J outside what the set's curve reaches"];
+      continue;
+    }
+    DerivedResult r{spec.set->id, {}};
+    for (const auto& iv : solution.intervals) r.intervals.push_back({iv.from_deg, iv.to_deg});
+    results.emplace_back(p.coupling_id, std::move(r));
+  }
+
+  Statement clear(db, "DELETE FROM derived_results WHERE coupling_id = ? AND karplus_set = ?");
+  Statement insert(db, "INSERT INTO derived_results (coupling_id, karplus_set, from_deg, to_deg) VALUES (?, ?, ?, ?)");
+  for (const auto& [id, r] : results) {
+    clear.bind(1, id).bind(2, r.karplus_set);
+    clear.run();
+    for (const auto& iv : r.intervals) {
+      insert.bind(1, id).bind(2, r.karplus_set).bind(3, iv.from_deg).bind(4, iv.to_deg);
+      insert.run();
+      ++report.rows_written;
+    }
+    ++report.couplings_derived;
+  }
+  tx.commit();
+  progress.finish();
+  return report;
+}
+
+std::map<std::int64_t, std::vector<DerivedResult>> read_derived(Database& db, std::int64_t compound_id) {
+  Statement read(db,
+                 "SELECT d.coupling_id, d.karplus_set, d.from_deg, d.to_deg FROM derived_results d "
+                 "JOIN couplings k ON k.id = d.coupling_id JOIN measurement_sets s ON s.id = k.set_id "
+                 "WHERE s.compound_id = ? ORDER BY d.coupling_id, d.karplus_set, d.from_deg");
+  read.bind(1, compound_id);
+  std::map<std::int64_t, std::vector<DerivedResult>> out;
+  while (read.step()) {
+    auto& list = out[read.integer(0)];
+    const std::string set = read.text(1);
+    if (list.empty() || list.back().karplus_set != set) list.push_back({set, {}});
+    list.back().intervals.push_back({read.real(2), read.real(3)});
+  }
+  return out;
+}
+
+std::vector<std::int64_t> coupling_ids_in_entry_order(Database& db, std::int64_t compound_id) {
+  Statement read(db,
+                 "SELECT k.id FROM couplings k JOIN measurement_sets s ON s.id = k.set_id WHERE s.compound_id = ? "
+                 "ORDER BY s.id, k.id");
+  read.bind(1, compound_id);
+  std::vector<std::int64_t> out;
+  while (read.step()) out.push_back(read.integer(0));
+  return out;
+}
+
+}  // namespace vicinal::library

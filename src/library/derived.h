@@ -1,0 +1,53 @@
+// Results derived from stored couplings and kept beside them: for a 3J
+// coupling, the dihedral intervals a Karplus set allows (karplus/karplus.h,
+// allowed_dihedrals at k = 2, the same band as `karplus angles`), stored in
+// derived_results with the set's id. Deriving again with the same set
+// replaces that coupling's rows for the set; results from other sets stay.
+#pragma once
+
+#include <cstdint>
+#include <map>
+#include <string>
+#include <vector>
+
+#include "core/progress.h"
+#include "library/sqlite.h"
+
+namespace vicinal::library {
+
+// Coverage factor of the stored intervals: |J(curve) - J| <= 2 sqrt(sigma^2 + rms^2).
+inline constexpr double kDerivedCoverage = 2.0;
+
+struct DerivedInterval {
+  double from_deg = 0, to_deg = 0;  // within [-180, 180]; an interval through +-180 is two rows
+};
+
+struct DerivedResult {
+  std::string karplus_set;
+  std::vector<DerivedInterval> intervals;
+};
+
+struct DeriveOptions {
+  std::int64_t compound_id = 0;      // 0 = every compound
+  std::string set_choice = "auto";   // for couplings without a preferred set of their own
+};
+
+struct DeriveReport {
+  int couplings_derived = 0, rows_written = 0;
+  std::map<std::string, int> skipped;  // reason -> count
+};
+
+// Computes and stores (one transaction) the intervals of every 3J coupling of
+// the chosen compounds. A coupling is skipped, with the reason counted, when it
+// is not a 3J coupling, is stereo-unassigned, no set fits its path, or its J
+// lies outside what the set's curve can reach.
+DeriveReport derive_dihedral_intervals(Database& db, const DeriveOptions& options, Progress& progress);
+
+// The derived results of one compound's couplings, by coupling id.
+std::map<std::int64_t, std::vector<DerivedResult>> read_derived(Database& db, std::int64_t compound_id);
+
+// Coupling ids of one compound in the order read_entries gives its couplings
+// (sets by id, couplings by id), to pair entries with read_derived.
+std::vector<std::int64_t> coupling_ids_in_entry_order(Database& db, std::int64_t compound_id);
+
+}  // namespace vicinal::library
