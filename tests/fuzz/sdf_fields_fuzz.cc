@@ -3,23 +3,15 @@
 // JSON field with its couplings, the `vicinal_atom_labels` field), both on
 // the first bad record and with bad records skipped, and the first record
 // alone through the inline-molfile reader and the atom-label field reader.
-#include "fuzz_support.h"
+#include "exchange_file_support.h"
 #include "library/entry_builder.h"
-#include "library/formats.h"
 #include "structure/atom_labels.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   using namespace vicinal;
   const std::string_view text = fuzz::as_text(data, size);
   const std::string path = fuzz::scratch_file(text, ".sdf");
-  for (const bool skip_bad : {false, true}) {
-    fuzz::expect_only_vicinal_errors([&] {
-      library::ImportOptions options;
-      options.skip_bad = skip_bad;
-      const auto result = library::read_exchange_file(path, options);
-      if (!skip_bad && !result.rejects.empty()) fuzz::broken_promise("rejects without skip_bad");
-    });
-  }
+  fuzz::read_exchange_both_ways(path, [](const library::ImportResult&) {});
   fuzz::expect_only_vicinal_errors([&] {
     const auto end = text.find("$$$$");
     const std::string record(text.substr(0, end == std::string_view::npos ? text.size() : end + 4));
