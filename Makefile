@@ -31,7 +31,7 @@ bench: deps
 
 # The whole test suite under AddressSanitizer + UndefinedBehaviorSanitizer (gcc)
 # in build-sanitize. Leak suppressions for system libraries: tests/sanitize/lsan.supp.
-# Not yet in CI: leak reports from Open Babel's stereo perception are unresolved.
+# .ci/run runs it after `make test`.
 SANITIZE_BUILD ?= build-sanitize
 SANITIZE_ENV = ASAN_OPTIONS=detect_leaks=1:check_initialization_order=1:strict_init_order=1 \
   LSAN_OPTIONS=suppressions=$(CURDIR)/tests/sanitize/lsan.supp:print_suppressions=0 \
