@@ -12,6 +12,7 @@
 
 #include "cli/fit_inputs.h"
 #include "cli/fit_report.h"
+#include "core/atomic_file.h"
 #include "core/csv.h"
 #include "core/data_dir.h"
 #include "core/error.h"
@@ -159,7 +160,7 @@ structure::Ensemble candidate_conformers(const std::string& name, const std::str
   co.progress = progress.get();
   structure::ConformerReport report;
   auto e = structure::generate_conformers(mol, co, &report);
-  std::filesystem::create_directories(target.parent_path());
+  create_output_folder(target.parent_path());
   structure::write_ensemble_sdf(e, target.string());
   origin = fmt::format("{} MMFF94 conformers generated ({})", e.frame_count(), report.method);
   return e;
@@ -273,7 +274,7 @@ Json run_scenario_analysis(const ScenarioRun& run, const Globals& g) {
   const std::string scenario_source = run.scenario.string();
   const Json scenario = read_json_file(scenario_source);
   const auto folder = run.scenario.parent_path();
-  std::filesystem::create_directories(run.out_dir);
+  create_output_folder(run.out_dir);
 
   g.note("[1/6] importing the measured couplings into a fresh library");
   const std::string compound = text_of(scenario, "compound", scenario_source);

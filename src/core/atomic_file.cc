@@ -49,4 +49,12 @@ void write_file_atomically(const std::filesystem::path& target, std::string_view
   });
 }
 
+void create_output_folder(const std::filesystem::path& folder) {
+  std::error_code ec;
+  std::filesystem::create_directories(folder, ec);
+  if (ec)
+    throw Error(fmt::format("cannot create the folder: {}", ec.message()), {folder.string()},
+                "choose a folder you can write to");
+}
+
 }  // namespace vicinal

@@ -16,4 +16,8 @@ void write_file_atomically(const std::filesystem::path& target, std::string_view
 void write_via_temporary(const std::filesystem::path& target,
                          const std::function<void(const std::filesystem::path&)>& write);
 
+// Creates `folder` and its parents if missing; a folder that cannot be made
+// (no permission, a file in the way) is a vicinal::Error naming it.
+void create_output_folder(const std::filesystem::path& folder);
+
 }  // namespace vicinal

@@ -632,7 +632,7 @@ std::vector<std::string> write_analysis_report(const Json& doc, const std::strin
     const std::string html = analysis_html(doc, figures);
     const auto tables = analysis_tables(doc);
     if (!paths.figures_dir.empty()) {
-      std::filesystem::create_directories(paths.figures_dir);
+      create_output_folder(paths.figures_dir);
       for (const auto& f : figures)
         for (const char* ext : {".svg", ".pdf", ".png"}) {
           Figure fig = f.figure;
@@ -643,7 +643,7 @@ std::vector<std::string> write_analysis_report(const Json& doc, const std::strin
         }
     }
     if (!paths.tables_dir.empty()) {
-      std::filesystem::create_directories(paths.tables_dir);
+      create_output_folder(paths.tables_dir);
       for (const auto& [file, text] : tables) {
         write_file_atomically(paths.tables_dir / file, text);
         written.push_back((paths.tables_dir / file).string());

@@ -72,7 +72,7 @@ std::vector<std::string> write_result_page(const ResultPage& page, const Json& d
                                            const ReportPaths& paths) {
   std::vector<std::string> written;
   if (!paths.figures_dir.empty()) {
-    std::filesystem::create_directories(paths.figures_dir);
+    create_output_folder(paths.figures_dir);
     for (const auto& f : page.figures)
       for (const char* ext : {".svg", ".pdf", ".png"}) {
         const auto path = paths.figures_dir / (f.name + ext);
@@ -81,7 +81,7 @@ std::vector<std::string> write_result_page(const ResultPage& page, const Json& d
       }
   }
   if (!paths.tables_dir.empty()) {
-    std::filesystem::create_directories(paths.tables_dir);
+    create_output_folder(paths.tables_dir);
     for (const auto& t : page.tables) {
       write_file_atomically(paths.tables_dir / t.file, t.csv());
       written.push_back((paths.tables_dir / t.file).string());
@@ -89,7 +89,7 @@ std::vector<std::string> write_result_page(const ResultPage& page, const Json& d
     write_file_atomically(paths.tables_dir / copy_name, doc.dump(2) + "\n");
     written.push_back((paths.tables_dir / copy_name).string());
   }
-  if (!paths.html.parent_path().empty()) std::filesystem::create_directories(paths.html.parent_path());
+  if (!paths.html.parent_path().empty()) create_output_folder(paths.html.parent_path());
   write_file_atomically(paths.html, page.html);
   written.push_back(paths.html.string());
   return written;

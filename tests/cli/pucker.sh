@@ -90,6 +90,10 @@ printf "coupling,j_hz,sigma_hz\nH1'-H2',9.1,0.3\nH5'-H4',3,0.3\n" >bad.csv
 run 2 pucker fit --couplings bad.csv; one_line_error; contains err "bad.csv:3"; contains err "'coupling'"
 run 2 pucker fit --couplings bad.csv --report "$WORK/never"; one_line_error
 [[ ! -e "$WORK/never" ]] || fail "bad input left a report folder"
+# A report folder that cannot be created (a file in the way) is named, exit 2.
+printf "x" >"$WORK/a-file"
+run 2 pucker fit --ring deoxyribose --couplings "$EX/deoxy-nucleoside.csv" --report "$WORK/a-file/report"
+one_line_error; contains err "a-file/report"
 printf "coupling,j_hz,sigma_hz\nH1'-H2',nine,0.3\n" >bad2.csv
 run 2 pucker fit --couplings bad2.csv; one_line_error; contains err "bad2.csv:2"; contains err "'j_hz'"
 printf "coupling,j_hz,sigma_hz\nH1'-H2',9,0\n" >bad3.csv
