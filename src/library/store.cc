@@ -5,6 +5,7 @@
 #include <filesystem>
 #include <map>
 
+#include "core/atomic_file.h"
 #include "core/error.h"
 #include "library/coupling_row.h"
 #include "library/fingerprint.h"
@@ -64,7 +65,7 @@ Library::Library(const std::string& path) : path_(path) {
 
 std::unique_ptr<Library> Library::create(const std::string& path) {
   const auto folder = std::filesystem::path(path).parent_path();
-  if (!folder.empty() && !std::filesystem::exists(folder)) std::filesystem::create_directories(folder);
+  if (!folder.empty()) create_output_folder(folder);
   return std::unique_ptr<Library>(
       new Library(std::make_unique<Database>(path, Database::Mode::ReadWriteCreate), path));
 }

@@ -198,6 +198,8 @@ run 2 --library "$WORK/newer.sqlite" library show ethanol; one_line_error; conta
 echo "not a database" > junk.sqlite
 run 2 --library "$WORK/junk.sqlite" library show ethanol; one_line_error
 run 2 --library "$WORK/none.sqlite" library show ethanol; one_line_error; contains err "library init"
+printf "x" >"$WORK/in-the-way"
+run 2 --library "$WORK/in-the-way/lib.sqlite" library init; one_line_error; contains err "in-the-way"
 
 # Rows sharing stereo-unassigned alternatives are one group (H-4a/H-4b in an
 # unknown order), not two values of one coupling: importing the demo's file
