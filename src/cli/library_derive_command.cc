@@ -3,6 +3,7 @@
 
 #include "cli/command.h"
 #include "cli/library_common.h"
+#include "karplus/karplus.h"
 #include "library/derived.h"
 #include "library/query.h"
 #include "report/table.h"
@@ -17,6 +18,8 @@ struct Options {
 };
 
 void run_derive(const Options& o, const Globals& g) {
+  // A misspelt --set would otherwise skip every coupling as "fits no set".
+  if (o.set != "auto") karplus::SetCatalog::shipped().find(o.set);
   auto lib = open_library(g);
   library::DeriveOptions options;
   options.set_choice = o.set;

@@ -57,4 +57,5 @@ run 0 "${L[@]}" library show ethanol
 contains out "(hh-karplus-1963)"
 
 run 2 "${L[@]}" library derive nothing-like-this; one_line_error
+run 2 "${L[@]}" library derive --set no-such-set; one_line_error; contains err "no-such-set"
 echo "library_derive: ok"
