@@ -22,9 +22,15 @@ void run_export(const Options& o, const Globals& g) {
   for (const auto& c : o.compounds) ids.push_back(library::find_compound(lib->db(), c));
   const auto entries = lib->read_entries(ids);
   library::write_exchange_file(entries, o.file);
-  std::size_t couplings = 0;
+  std::size_t couplings = 0, derived = 0;
   for (const auto& e : entries)
-    for (const auto& s : e.sets) couplings += s.couplings.size();
+    for (const auto& s : e.sets) {
+      couplings += s.couplings.size();
+      for (const auto& c : s.couplings) derived += c.derived.size();
+    }
+  if (derived > 0 && library::exchange_format(o.file) == "csv")
+    g.note(fmt::format("{} derived dihedral interval{} left out: CSV has no place for them (export to .json or .sdf)",
+                       derived, derived == 1 ? "" : "s"));
   if (g.json) {
     g.print_json({{"file", o.file}, {"compounds", entries.size()}, {"couplings", couplings}});
     return;
@@ -41,7 +47,9 @@ void setup(CLI::App& root, Globals& g) {
   cmd->footer("Example: vicinal library export everything.json\n"
               "Structures are written as molfiles with their atom numbering and labels, so\n"
               "importing the file into an empty library gives the same content back. CSV and\n"
-              "SDF carry the couplings and conditions; JSON also carries compound and set notes.");
+              "SDF carry the couplings and conditions; JSON also carries compound and set notes.\n"
+              "JSON and SDF also carry the derived dihedral intervals (library derive); CSV,\n"
+              "one row per coupling, has no place for them and leaves them out.");
   cmd->callback([o, &g] { run_export(*o, g); });
 }
 

@@ -63,7 +63,9 @@ void setup(CLI::App& root, Globals& g) {
       "A file is stored whole or not at all: the first bad row stops the import with\n"
       "its line, column and reason. Compounds are recognised by InChIKey and couplings\n"
       "by their atoms' canonical ranks, so a value seen before is not stored twice,\n"
-      "and a different value for the same coupling is kept beside the old one and reported.");
+      "and a different value for the same coupling is kept beside the old one and reported.\n"
+      "JSON and SDF files written by library export also bring each coupling's derived\n"
+      "dihedral intervals; a coupling keeps those it already has for a Karplus set.");
   cmd->callback([o, &g] { run_import(*o, g); });
 }
 

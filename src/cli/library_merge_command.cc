@@ -17,7 +17,8 @@ void setup(CLI::App& root, Globals& g) {
               "Compounds are matched by InChIKey, measurement sets by all their conditions and\n"
               "couplings by their atoms' canonical ranks. Equal values are not stored twice; a\n"
               "different value for the same coupling is stored beside ours with its origin and\n"
-              "listed. The merge is one transaction: all of it is stored or none.");
+              "listed. Derived dihedral intervals come along; a coupling keeps those it already\n"
+              "has for a Karplus set. The merge is one transaction: all of it is stored or none.");
   cmd->callback([other, &g] {
     auto entries = library::read_other_library(*other);
     for (auto& e : entries)

@@ -4,6 +4,8 @@
 
 #include <memory>
 #include <optional>
+#include <set>
+#include <string_view>
 
 #include "core/error.h"
 #include "karplus/karplus.h"
@@ -31,6 +33,17 @@ struct Structure {
   OpenBabel::OBMol mol;
   structure::AtomLabels labels;
 };
+
+// SQLite's strftime('%Y-%m-%dT%H:%M:%SZ'), the form created_utc is stored in.
+bool is_utc_timestamp(const std::string& text) {
+  constexpr std::string_view pattern = "dddd-dd-ddTdd:dd:ddZ";
+  if (text.size() != pattern.size()) return false;
+  for (std::size_t i = 0; i < pattern.size(); ++i) {
+    const bool digit = text[i] >= '0' && text[i] <= '9';
+    if (pattern[i] == 'd' ? !digit : text[i] != pattern[i]) return false;
+  }
+  return true;
+}
 
 }  // namespace
 
@@ -149,6 +162,74 @@ std::vector<std::int64_t> coupling_ids_in_entry_order(Database& db, std::int64_t
   std::vector<std::int64_t> out;
   while (read.step()) out.push_back(read.integer(0));
   return out;
+}
+
+void check_derived(const DerivedRecord& row, const std::string& source, const std::string& context) {
+  const auto& catalog = karplus::SetCatalog::shipped();
+  try {
+    catalog.find(row.karplus_set);
+  } catch (const Error& e) {
+    throw Error(e.what_happened(), Location::field_in(source, context + ".karplus_set"),
+                e.hint() + "; a set of your own must be in $VICINAL_KARPLUS_DIR");
+  }
+  for (const auto& [key, deg] : {std::pair{"from_deg", row.from_deg}, std::pair{"to_deg", row.to_deg}})
+    if (!(deg >= -180 && deg <= 180))
+      throw Error(fmt::format("{} degrees is outside [-180, 180]", deg), Location::field_in(source, context + "." + key),
+                  "an interval through +-180 is written as two, [from, 180] and [-180, to]");
+  if (row.from_deg > row.to_deg)
+    throw Error(fmt::format("the interval ends before it starts ({} > {})", row.from_deg, row.to_deg),
+                Location::field_in(source, context + ".to_deg"),
+                "give from_deg <= to_deg; an interval through +-180 is written as two, [from, 180] and [-180, to]");
+  if (!row.created_utc.empty() && !is_utc_timestamp(row.created_utc))
+    throw Error(fmt::format("'{}' is not a UTC time such as 2024-05-01T09:30:00Z", row.created_utc),
+                Location::field_in(source, context + ".created_utc"));
+}
+
+DerivedRowReader::DerivedRowReader(Database& db)
+    : read_(db,
+            "SELECT d.coupling_id, d.karplus_set, d.from_deg, d.to_deg, d.created_utc FROM derived_results d "
+            "JOIN couplings k ON k.id = d.coupling_id WHERE k.set_id = ? "
+            "ORDER BY d.coupling_id, d.karplus_set, d.from_deg, d.to_deg, d.id") {}
+
+std::map<std::int64_t, std::vector<DerivedRecord>> DerivedRowReader::of_set(std::int64_t set_id) {
+  std::map<std::int64_t, std::vector<DerivedRecord>> out;
+  read_.bind(1, set_id);
+  while (read_.step())
+    out[read_.integer(0)].push_back({read_.text(1), read_.real(2), read_.real(3), read_.text(4)});
+  read_.reset();
+  return out;
+}
+
+DerivedRowWriter::DerivedRowWriter(Database& db)
+    : sets_present_(db, "SELECT DISTINCT karplus_set FROM derived_results WHERE coupling_id = ?"),
+      insert_(db,
+              "INSERT INTO derived_results (coupling_id, karplus_set, from_deg, to_deg, created_utc) VALUES "
+              "(?1, ?2, ?3, ?4, COALESCE(NULLIF(?5, ''), strftime('%Y-%m-%dT%H:%M:%SZ', 'now')))"),
+      find_duplicate_(db,
+                      "SELECT id FROM couplings WHERE set_id = ? AND identity = ? AND j_hz = ? AND sigma_hz IS ? "
+                      "AND sign_known = ? ORDER BY id LIMIT 1") {}
+
+void DerivedRowWriter::add(std::int64_t coupling_id, const std::vector<DerivedRecord>& rows) {
+  if (rows.empty()) return;
+  std::set<std::string> present;
+  sets_present_.bind(1, coupling_id);
+  while (sets_present_.step()) present.insert(sets_present_.text(0));
+  sets_present_.reset();
+  for (const auto& r : rows) {
+    if (present.count(r.karplus_set)) continue;
+    insert_.bind(1, coupling_id).bind(2, r.karplus_set).bind(3, r.from_deg).bind(4, r.to_deg).bind(5, r.created_utc);
+    insert_.run();
+  }
+}
+
+void DerivedRowWriter::add_to_duplicate(std::int64_t set_id, const CouplingRecord& in) {
+  if (in.derived.empty()) return;
+  find_duplicate_.bind(1, set_id).bind(2, in.identity).bind(3, in.j_hz).bind(4, in.sigma_hz);
+  find_duplicate_.bind(5, in.sign_known ? 1 : 0);
+  const bool found = find_duplicate_.step();
+  const std::int64_t id = found ? find_duplicate_.integer(0) : 0;
+  find_duplicate_.reset();
+  if (found) add(id, in.derived);
 }
 
 }  // namespace vicinal::library

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "core/progress.h"
+#include "library/records.h"
 #include "library/sqlite.h"
 
 namespace vicinal::library {
@@ -49,5 +50,42 @@ std::map<std::int64_t, std::vector<DerivedResult>> read_derived(Database& db, st
 // Coupling ids of one compound in the order read_entries gives its couplings
 // (sets by id, couplings by id), to pair entries with read_derived.
 std::vector<std::int64_t> coupling_ids_in_entry_order(Database& db, std::int64_t compound_id);
+
+// Derived rows travelling with entries (CouplingRecord::derived), so that
+// export, import and merge keep them.
+
+// vicinal::Error naming `source` and `context`.<key> unless the row is one
+// derive could have written: a Karplus set this vicinal knows, ends within
+// [-180, 180] with from_deg <= to_deg (a band through +-180 is two rows), and
+// created_utc empty or "YYYY-MM-DDTHH:MM:SSZ".
+void check_derived(const DerivedRecord& row, const std::string& source, const std::string& context);
+
+// Reads the derived rows of a measurement set's couplings.
+class DerivedRowReader {
+ public:
+  explicit DerivedRowReader(Database& db);
+  // By coupling id; each list ordered by karplus_set, from_deg, to_deg.
+  std::map<std::int64_t, std::vector<DerivedRecord>> of_set(std::int64_t set_id);
+
+ private:
+  Statement read_;
+};
+
+// Stores derived rows for couplings inside the caller's write transaction.
+// Deriving replaces a coupling's rows for a set as a whole, so a coupling
+// keeps the rows it already has for a set and the incoming rows for that set
+// are dropped: importing or merging the same results again adds nothing, and
+// two derivations are never mixed.
+class DerivedRowWriter {
+ public:
+  explicit DerivedRowWriter(Database& db);
+  void add(std::int64_t coupling_id, const std::vector<DerivedRecord>& rows);
+  // The same for the coupling stored in set_id that `in` duplicates (same
+  // identity, J, sigma and sign), which keeps its id.
+  void add_to_duplicate(std::int64_t set_id, const CouplingRecord& in);
+
+ private:
+  Statement sets_present_, insert_, find_duplicate_;
+};
 
 }  // namespace vicinal::library

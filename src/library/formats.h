@@ -5,7 +5,8 @@
 //   .sdf   one record per compound; its couplings in the data field
 //          `vicinal_compound` (one line of JSON, the compound object without
 //          the structure), atom labels in `vicinal_atom_labels`
-// Export followed by import gives back the same library content.
+// Export followed by import gives back the same library content; JSON and SDF
+// also carry each coupling's derived results, CSV (one row per coupling) not.
 #pragma once
 
 #include <string>

@@ -7,7 +7,10 @@
 //                "instrument", "method", "measured_by", "measured_on",
 //                "source", "imported_from", "notes": [...],
 //                "couplings": [{"nuclei": "H-2,H-3", "j_hz", "sigma_hz",
-//                               "sign_known", "set", "note", "origin"}]}]}]}
+//                               "sign_known", "set", "note", "origin",
+//                               "derived": [{"karplus_set", "from_deg", "to_deg",
+//                                            "created_utc"}] (library derive's
+//                               rows, optional)}]}]}]}
 // SDF: each record's mol block is the structure; the data field
 // `vicinal_compound` holds the compound object above (without a structure) as
 // one line of JSON, and `vicinal_atom_labels` the atom labels.
@@ -22,6 +25,7 @@
 #include "core/atomic_file.h"
 #include "core/csv.h"
 #include "core/json_file.h"
+#include "library/derived.h"
 #include "library/entry_builder.h"
 #include "library/formats.h"
 #include "predict/coupling_list.h"
@@ -41,7 +45,9 @@ const std::set<std::string> kSetKeys = {"name",        "solvent",     "temperatu
                                         "ph",          "instrument",  "method",        "measured_by",
                                         "measured_on", "source",      "imported_from", "notes",
                                         "couplings"};
-const std::set<std::string> kCouplingKeys = {"nuclei", "j_hz", "sigma_hz", "sign_known", "set", "note", "origin"};
+const std::set<std::string> kCouplingKeys = {"nuclei", "j_hz",   "sigma_hz", "sign_known",
+                                             "set",    "note",   "origin",   "derived"};
+const std::set<std::string> kDerivedKeys = {"karplus_set", "from_deg", "to_deg", "created_utc"};
 
 void check_keys(const Json& object, const std::set<std::string>& allowed, const std::string& source,
                 const std::string& context) {
@@ -69,6 +75,33 @@ std::vector<std::string> notes_of(const Json& object, const std::string& source,
   if (!object["notes"].is_array()) throw Error("expected a list of texts", Location::field_in(source, context + ".notes"));
   for (std::size_t i = 0; i < object["notes"].size(); ++i)
     out.push_back(json_string(object["notes"][i], source, fmt::format("{}.notes[{}]", context, i)));
+  return out;
+}
+
+// The "derived" rows of one coupling object, checked as check_derived does.
+std::vector<DerivedRecord> derived_of(const Json& coupling, const std::string& source, const std::string& context) {
+  std::vector<DerivedRecord> out;
+  if (!coupling.contains("derived")) return out;
+  const std::string dc = context + ".derived";
+  if (!coupling["derived"].is_array()) throw Error("expected a list", Location::field_in(source, dc));
+  for (std::size_t i = 0; i < coupling["derived"].size(); ++i) {
+    const std::string rc = fmt::format("{}[{}]", dc, i);
+    const Json& r = coupling["derived"][i];
+    check_keys(r, kDerivedKeys, source, rc);
+    DerivedRecord row;
+    row.karplus_set = text_or(r, "karplus_set", source, rc);
+    if (row.karplus_set.empty()) throw Error("the Karplus set is missing", Location::field_in(source, rc + ".karplus_set"));
+    auto end = [&](const std::string& key) {
+      const auto deg = number_or(r, key, source, rc);
+      if (!deg) throw Error("the interval end is missing", Location::field_in(source, rc + "." + key));
+      return *deg;
+    };
+    row.from_deg = end("from_deg");
+    row.to_deg = end("to_deg");
+    row.created_utc = text_or(r, "created_utc", source, rc);
+    check_derived(row, source, rc);
+    out.push_back(std::move(row));
+  }
   return out;
 }
 
@@ -126,6 +159,7 @@ void read_sets(const Json& compound, CompoundBuilder& builder, Entry& entry, con
         c.note = text_or(j, "note", source, cc);
         c.origin = text_or(j, "origin", source, cc);
         if (c.origin.empty()) c.origin = source;
+        c.derived = derived_of(j, source, cc);
         set.couplings.push_back(std::move(c));
         ++result.couplings;
       } catch (const Error& e) {
@@ -160,6 +194,9 @@ Json compound_body(const Entry& e) {
       Json cj = {{"nuclei", x.nucleus_a + "," + x.nucleus_b}, {"j_hz", x.j_hz}, {"sign_known", x.sign_known},
                  {"set", x.karplus_set}, {"note", x.note}, {"origin", x.origin}};
       if (x.sigma_hz) cj["sigma_hz"] = *x.sigma_hz;
+      for (const auto& d : x.derived)
+        cj["derived"].push_back({{"karplus_set", d.karplus_set}, {"from_deg", d.from_deg}, {"to_deg", d.to_deg},
+                                 {"created_utc", d.created_utc}});
       set["couplings"].push_back(std::move(cj));
     }
     c["sets"].push_back(std::move(set));

@@ -37,6 +37,14 @@ struct Conditions {
   bool operator==(const Conditions&) const = default;
 };
 
+// One stored row of derived_results (library/derived.h): an interval of the
+// dihedral that a Karplus set allows for the coupling, with when it was derived.
+struct DerivedRecord {
+  std::string karplus_set;
+  double from_deg = 0, to_deg = 0;
+  std::string created_utc;  // "YYYY-MM-DDTHH:MM:SSZ"; empty = now, when stored
+};
+
 struct CouplingRecord {
   std::string nucleus_a, nucleus_b;       // as written: labels, alternatives '|'-joined
   std::vector<int> atoms_a, atoms_b;      // resolved atoms
@@ -52,6 +60,7 @@ struct CouplingRecord {
   std::string karplus_set;                // preferred Karplus set for this coupling, if any
   std::string note;
   std::string origin;                     // file or library the value came from
+  std::vector<DerivedRecord> derived;     // by karplus_set, from_deg (travels with the coupling)
   long line = 0;                          // input line, for messages (not stored)
 };
 

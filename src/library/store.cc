@@ -8,6 +8,7 @@
 #include "core/atomic_file.h"
 #include "core/error.h"
 #include "library/coupling_row.h"
+#include "library/derived.h"
 #include "library/fingerprint.h"
 #include "structure/atom_labels.h"
 
@@ -116,6 +117,7 @@ StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress
   Statement find_note(db, "SELECT 1 FROM notes WHERE compound_id IS ? AND set_id IS ? AND text = ?");
   Statement insert_note(db, "INSERT INTO notes (compound_id, set_id, text) VALUES (?, ?, ?)");
   Statement insert_fingerprint(db, "INSERT INTO compound_fingerprints (compound_id, kind, bits) VALUES (?, ?, ?)");
+  DerivedRowWriter derived(db);
 
   auto add_note = [&](std::optional<std::int64_t> compound, std::optional<std::int64_t> set, const std::string& text) {
     find_note.bind(1, compound).bind(2, set).bind(3, text);
@@ -249,6 +251,7 @@ StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress
                        it->second.sign_known == in.sign_known;
         if (duplicate) {
           ++report.couplings_duplicate;
+          derived.add_to_duplicate(set_id, in);
           continue;
         }
         if (first != last)
@@ -281,6 +284,7 @@ StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress
             .bind(18, in.note)
             .bind(19, in.origin);
         insert_coupling.run();
+        derived.add(db.last_insert_id(), in.derived);
         present.emplace(in.identity, StoredCoupling{in.j_hz, in.sigma_hz, in.sign_known, in.origin});
         ++report.couplings_added;
       }
@@ -300,7 +304,16 @@ std::vector<Entry> read_other_library(const std::string& path) {
     throw Error(fmt::format("the library is at schema version {}, newer than this vicinal understands ({})", version,
                             current_schema_version()),
                 {path}, "use a newer vicinal");
-  return read_entries(other);
+  auto entries = read_entries(other);
+  // Derived rows enter this library on the same terms as from an import file.
+  for (const auto& e : entries)
+    for (const auto& s : e.sets)
+      for (const auto& c : s.couplings)
+        for (std::size_t i = 0; i < c.derived.size(); ++i)
+          check_derived(c.derived[i], path,
+                        fmt::format("compound \"{}\", set \"{}\", coupling {},{}, derived[{}]", e.compound.name,
+                                    s.conditions.name, c.nucleus_a, c.nucleus_b, i));
+  return entries;
 }
 
 std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& wanted) {
@@ -318,7 +331,8 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
   Statement sets(db,
                  "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
                  "measured_on, source, imported_from FROM measurement_sets WHERE compound_id = ? ORDER BY id");
-  Statement couplings(db, "SELECT " + coupling_columns() + " FROM couplings WHERE set_id = ? ORDER BY id");
+  Statement couplings(db, "SELECT " + coupling_columns() + ", id FROM couplings WHERE set_id = ? ORDER BY id");
+  DerivedRowReader derived(db);
   std::vector<Entry> out;
   for (const auto id : ids) {
     compound.bind(1, id);
@@ -362,9 +376,12 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
       set_notes.bind(1, set_id);
       while (set_notes.step()) s.notes.push_back(set_notes.text(0));
       set_notes.reset();
+      auto derived_rows = derived.of_set(set_id);
       couplings.bind(1, set_id);
       while (couplings.step()) {
         s.couplings.push_back(read_coupling(couplings, 0));
+        if (auto it = derived_rows.find(couplings.integer(kCouplingColumnCount)); it != derived_rows.end())
+          s.couplings.back().derived = std::move(it->second);
       }
       couplings.reset();
       e.sets.push_back(std::move(s));

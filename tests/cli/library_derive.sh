@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # vicinal library derive: dihedral intervals stored in derived_results for each
-# 3J coupling, replaced when derived again, shown by library show (text, JSON).
+# 3J coupling, replaced when derived again, shown by library show (text, JSON),
+# carried by JSON/SDF export, import and merge (round trips exact, not doubled).
 # Outside check: the stored interval ends against an independent numpy grid
 # solution of |J(phi) - J| <= 2 sigma for the Fourier form
 # J = C0 + C1 cos(phi) + C2 cos(2 phi) with the shipped set hh-karplus-1963
@@ -55,6 +56,80 @@ run 0 "${L[@]}" --json library show ethanol
 [[ $(json_get 'd["sets"][0]["couplings"][1]["derived"]') == "[]" ]] || fail "an underived coupling shows results"
 run 0 "${L[@]}" library show ethanol
 contains out "(hh-karplus-1963)"
+
+# Derived rows travel with the couplings through export and import: JSON and
+# SDF round trips are exact. created_utc is first set to a fixed past time so
+# that a re-stamped row cannot pass by being written in the same second.
+/usr/bin/python3 -c "import sqlite3,sys; c=sqlite3.connect(sys.argv[1]); c.execute(\"update derived_results set created_utc = '2023-02-03T04:05:06Z'\"); c.commit()" "$WORK/lib.sqlite"
+# rows DB: the derived rows with their coupling's identity and J, in a fixed
+# order, read with Python's sqlite3 (not through vicinal).
+rows_of() {
+  /usr/bin/python3 -c "import sqlite3,sys; print(sqlite3.connect(sys.argv[1]).execute('select k.identity, k.j_hz, d.karplus_set, d.from_deg, d.to_deg, d.created_utc from derived_results d join couplings k on k.id = d.coupling_id order by 1, 2, 3, 4, 5').fetchall())" "$1"
+}
+for ext in json sdf; do
+  run 0 "${L[@]}" library export "all.$ext"
+  contains "all.$ext" "2023-02-03T04:05:06Z"
+  run 0 --library "$WORK/rt-$ext.sqlite" library import "all.$ext"
+  run 0 --library "$WORK/rt-$ext.sqlite" library export "again.$ext"
+  cmp "all.$ext" "again.$ext" || fail "$ext round trip with derived results differs"
+  [[ "$(rows_of "$WORK/rt-$ext.sqlite")" == "$(rows_of "$WORK/lib.sqlite")" ]] || fail "$ext import changed derived rows"
+  # Importing the export into the library it came from adds no derived row.
+  run 0 "${L[@]}" library import "all.$ext"
+  [[ $(count "$WORK/lib.sqlite" "select count(*) from derived_results") == "$rows" ]] || fail "$ext re-import doubled"
+done
+run 0 "${L[@]}" library export all.csv
+contains err "derived dihedral intervals left out"
+run 0 "${L[@]}" library export --help
+contains out "CSV,"; contains out "has no place for them"
+
+# merge carries the other library's derived rows to the matching couplings,
+# and merging again (or merging into their source) does not double them.
+run 0 --library "$WORK/m.sqlite" library import a.csv
+[[ $(count "$WORK/m.sqlite" "select count(*) from derived_results") == 0 ]] || fail "fresh library has derived rows"
+run 0 --library "$WORK/m.sqlite" --json library merge "$WORK/lib.sqlite"
+[[ $(json_get 'd["couplings_added"]') == 0 ]] || fail "merge added couplings"
+[[ "$(rows_of "$WORK/m.sqlite")" == "$(rows_of "$WORK/lib.sqlite")" ]] || fail "merge did not carry the derived rows"
+run 0 --library "$WORK/m.sqlite" library merge "$WORK/lib.sqlite"
+[[ $(count "$WORK/m.sqlite" "select count(*) from derived_results") == "$rows" ]] || fail "merging twice doubled"
+run 0 "${L[@]}" library merge "$WORK/m.sqlite"
+[[ $(count "$WORK/lib.sqlite" "select count(*) from derived_results") == "$rows" ]] || fail "merge back doubled"
+# A coupling that has rows for a set keeps them: other rows for that set in
+# the merged library do not join them.
+cp lib.sqlite shifted.sqlite
+/usr/bin/python3 -c "import sqlite3,sys; c=sqlite3.connect(sys.argv[1]); c.execute('update derived_results set from_deg = from_deg - 1'); c.commit()" shifted.sqlite
+run 0 "${L[@]}" library merge "$WORK/shifted.sqlite"
+[[ "$(rows_of "$WORK/lib.sqlite")" == "$(rows_of "$WORK/m.sqlite")" ]] || fail "merge mixed two derivations"
+
+# Bad derived rows are refused with the file, the JSON path and the field;
+# nothing is stored.
+bad_json() {  # bad_json OUT KEY VALUE: all.json with derived[0].KEY = VALUE (JSON text)
+  /usr/bin/python3 -c "
+import json, sys
+d = json.load(open('all.json'))
+row = d['compounds'][0]['sets'][0]['couplings'][0]['derived'][0]
+row[sys.argv[2]] = json.loads(sys.argv[3])
+json.dump(d, open(sys.argv[1], 'w'))" "$@"
+}
+at='compounds[0].sets[0].couplings[0].derived[0]'
+bad_json bad-range.json from_deg 200
+bad_json bad-order.json from_deg 170
+bad_json bad-set.json karplus_set '"hh-no-such-set"'
+bad_json bad-time.json created_utc '"yesterday"'
+bad_json bad-key.json colour '"red"'
+for f in bad-range:from_deg bad-order:to_deg bad-set:karplus_set bad-time:created_utc bad-key:colour; do
+  run 2 --library "$WORK/bad.sqlite" library import "${f%%:*}.json"; one_line_error
+  contains err "${f%%:*}.json"; contains err "$at"; contains err "${f#*:}"
+done
+contains err "unknown key 'colour'"
+run 2 --library "$WORK/bad.sqlite" library import bad-range.json; contains err "outside [-180, 180]"
+run 2 --library "$WORK/bad.sqlite" library import bad-order.json; contains err "ends before it starts"
+run 2 --library "$WORK/bad.sqlite" library import bad-set.json; contains err "unknown Karplus set 'hh-no-such-set'"
+[[ ! -e bad.sqlite ]] || [[ $(count "$WORK/bad.sqlite" "select count(*) from couplings") == 0 ]] || fail "a refused file left rows"
+# The same rule for a library to merge (300 passes the table's CHECK).
+cp lib.sqlite wrong.sqlite
+/usr/bin/python3 -c "import sqlite3,sys; c=sqlite3.connect(sys.argv[1]); c.execute('update derived_results set from_deg = 300, to_deg = 310'); c.commit()" wrong.sqlite
+run 2 --library "$WORK/m.sqlite" library merge "$WORK/wrong.sqlite"; one_line_error
+contains err "wrong.sqlite"; contains err "derived[0].from_deg"
 
 run 2 "${L[@]}" library derive nothing-like-this; one_line_error
 run 2 "${L[@]}" library derive --set no-such-set; one_line_error; contains err "no-such-set"
