@@ -1,24 +1,25 @@
 // Numbering-independent identity of compounds and couplings, through Open
 // Babel. A compound is its standard InChIKey (stereo included). An atom is its
 // canonical rank. A coupling is the pair of its nuclei's canonical ranks,
-// reduced over the molecule's graph automorphisms so that the same coupling
-// read from files with different atom numbering gets the same key.
+// reduced over the molecule's graph symmetry (library/pair_symmetry.h) so that
+// the same coupling read from files with different atom numbering gets the
+// same key.
 //
 // Graph symmetry alone would merge couplings that differ only in 3D (to one
-// or the other diastereotopic proton of a CH2, cis or trans across C=C). The
-// automorphisms that keep the geometry (tetrahedral handedness, cis/trans
-// across double bonds) are therefore told apart; when they split a pair's
-// orbit, the key also carries the canonical isomeric SMILES of the molecule
-// with the two nuclei replaced by marker elements, in which Open Babel
-// perceives the stereo the marks create. Automorphisms that mirror every
-// centre count as keeping the geometry, and mirror-image marked SMILES count
-// as one: enantiotopic nuclei give the same couplings in an achiral solvent.
-// Flat (2D) structures carry no handedness, so there only cis/trans is told apart.
+// or the other diastereotopic proton of a CH2, cis or trans across C=C). When
+// keeping the 3D arrangement splits a pair's orbit, the key also carries the
+// canonical isomeric SMILES of the molecule with the two nuclei replaced by
+// marker elements, in which Open Babel perceives the stereo the marks create.
+// Mirror-image marked SMILES count as one: enantiotopic nuclei give the same
+// couplings in an achiral solvent.
 #pragma once
 
 #include <openbabel/mol.h>
 
+#include "library/pair_symmetry.h"
+
 #include <map>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -44,19 +45,14 @@ class CompoundIdentity {
   std::string ranks_text(const std::vector<int>& atoms) const;
 
  private:
-  using Side = std::vector<unsigned>;
-  struct GeometryTest;  // which automorphisms keep the 3D arrangement (identity.cc)
-  std::pair<Side, Side> image(const std::vector<int>& a, const std::vector<int>& b,
-                              const std::vector<unsigned>* permutation) const;
   std::string marked_smiles(const std::vector<int>& a, const std::vector<int>& b) const;
 
   OpenBabel::OBMol mol_;
   std::string source_, inchi_, inchikey_, smiles_;
   std::vector<unsigned> canonical_rank_, symmetry_class_;
-  std::vector<std::vector<unsigned>> automorphisms_;  // 0-based permutations
-  std::vector<bool> keeps_geometry_;                  // per automorphism
-  bool automorphisms_complete_ = true;
+  std::unique_ptr<PairSymmetry> symmetry_;
   std::map<std::pair<std::vector<int>, std::vector<int>>, std::string> cache_;
+  std::map<PairSymmetry::Pair, std::string> marked_by_kept_orbit_;
 };
 
 // The InChI/InChIKey of a molecule alone (for checks and tests).

@@ -39,7 +39,7 @@ std::string pre_upgrade_backup_path(const std::string& library_path, int version
       .string();
 }
 
-UpgradeReport upgrade_schema(Database& db, const std::function<void()>& complete) {
+UpgradeReport upgrade_schema(Database& db, const std::function<void(int from_version)>& complete) {
   const auto migrations = shipped_migrations();
   const int target = static_cast<int>(migrations.size());
   UpgradeReport report;
@@ -63,17 +63,18 @@ UpgradeReport upgrade_schema(Database& db, const std::function<void()>& complete
                           [&](const std::filesystem::path& temporary) { db.backup_to(temporary.string()); });
   }
 
+  // All pending migrations in one transaction: an interrupted upgrade leaves
+  // the old version or the whole new one, never a version in between.
+  WriteTransaction tx(db);
+  // Another process may have upgraded the file while we waited for the lock.
+  const int found = db.user_version();
   for (const auto& m : migrations) {
-    if (m.version <= report.to_version) continue;
-    WriteTransaction tx(db);
-    // Another process may have upgraded the file while we waited for the lock.
-    if (db.user_version() >= m.version) continue;
+    if (m.version <= found) continue;
     db.exec(read_text_file(m.path.string()));
     db.exec(fmt::format("PRAGMA user_version = {}", m.version));  // an int; PRAGMA takes no bound parameters
-    if (m.version == target && complete) complete();
-    tx.commit();
-    report.to_version = m.version;
   }
+  if (found < target && complete) complete(found);
+  tx.commit();
   report.to_version = db.user_version();
   return report;
 }

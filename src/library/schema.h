@@ -30,12 +30,13 @@ struct UpgradeReport {
 };
 
 // Brings `db` to the current version. A library at version 0 must be empty
-// (a new file); anything else at 0 is not ours and is refused. `complete`, if
-// given, runs inside the last migration's transaction (to fill what the SQL
-// cannot), so an interrupted upgrade leaves the old version or the whole new one.
+// (a new file); anything else at 0 is not ours and is refused. All pending
+// migrations run in one transaction, and `complete`, if given, runs inside it
+// (to fill what the SQL cannot; it is told the version the file had), so an
+// interrupted upgrade leaves the old version or the whole new one.
 // The copy of an older library is written under a temporary name and renamed,
 // so a copy that exists is always whole.
-UpgradeReport upgrade_schema(Database& db, const std::function<void()>& complete = {});
+UpgradeReport upgrade_schema(Database& db, const std::function<void(int from_version)>& complete = {});
 
 // Where the copy made before upgrading a library at `version` goes.
 std::string pre_upgrade_backup_path(const std::string& library_path, int version);

@@ -10,6 +10,7 @@
 #include "library/coupling_row.h"
 #include "library/derived.h"
 #include "library/fingerprint.h"
+#include "library/rekey.h"
 #include "structure/atom_labels.h"
 
 namespace vicinal::library {
@@ -51,7 +52,7 @@ struct StoredCoupling {
 }  // namespace
 
 Library::Library(std::unique_ptr<Database> db, std::string path) : db_(std::move(db)), path_(std::move(path)) {
-  upgrade_ = upgrade_schema(*db_, [this] { insert_missing_fingerprints(); });
+  upgrade();
 }
 
 Library::Library(const std::string& path) : path_(path) {
@@ -61,7 +62,14 @@ Library::Library(const std::string& path) : path_(path) {
   if (std::filesystem::is_regular_file(path, ec) && std::filesystem::file_size(path, ec) == 0)
     throw Error("the library file is empty", {path}, "create a library with 'vicinal library init' or check --library");
   db_ = std::make_unique<Database>(path, Database::Mode::ReadWrite);
-  upgrade_ = upgrade_schema(*db_, [this] { insert_missing_fingerprints(); });
+  upgrade();
+}
+
+void Library::upgrade() {
+  upgrade_ = upgrade_schema(*db_, [this](int from_version) {
+    insert_missing_fingerprints();
+    if (from_version < kCurrentKeysVersion) rekey_stored_couplings(*db_);
+  });
 }
 
 std::unique_ptr<Library> Library::create(const std::string& path) {
@@ -313,6 +321,7 @@ std::vector<Entry> read_other_library(const std::string& path) {
           check_derived(c.derived[i], path,
                         fmt::format("compound \"{}\", set \"{}\", coupling {},{}, derived[{}]", e.compound.name,
                                     s.conditions.name, c.nucleus_a, c.nucleus_b, i));
+  if (version < kCurrentKeysVersion) rekey_entries(entries);
   return entries;
 }
 

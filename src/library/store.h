@@ -73,6 +73,9 @@ class Library {
   // Fills compound_fingerprints for compounds that have none (libraries
   // upgraded from version 1) inside the caller's write transaction.
   int insert_missing_fingerprints();
+  // Brings the file to the current schema; what SQL cannot do (fingerprints,
+  // identity keys recomputed) runs in the last migration's transaction.
+  void upgrade();
   Library(std::unique_ptr<Database> db, std::string path);
   std::unique_ptr<Database> db_;
   std::string path_;

@@ -8,7 +8,7 @@ L=(--library "$WORK/lib.sqlite")
 count() { /usr/bin/python3 -c "import sqlite3,sys; print(sqlite3.connect(sys.argv[1]).execute(sys.argv[2]).fetchone()[0])" "$@"; }
 
 run 0 "${L[@]}" library init
-contains out "schema version 2"
+contains out "schema version 3"
 run 0 "${L[@]}" library init          # again: nothing changes
 contains out "already present"
 
@@ -181,16 +181,30 @@ run 0 "${L[@]}" --json library merge "$WORK/other.sqlite"
 [[ $(json_get 'd["couplings_added"]') == 0 ]] || fail "merging twice added rows"
 run 2 "${L[@]}" library merge "$WORK/nonexistent.sqlite"; one_line_error
 
-# Upgrade from schema version 1: a backup copy beside it, then version 2.
+# Upgrade from schema version 1: a backup copy beside it, then the current version.
 cp "$DATA/v1.sqlite" old.sqlite
 run 0 --library "$WORK/old.sqlite" library check
-contains err "upgraded the library from schema version 1 to 2"
+contains err "upgraded the library from schema version 1 to 3"
 [[ -f old.v1.backup.sqlite ]] || fail "no backup before the upgrade"
 [[ $(count old.v1.backup.sqlite "pragma user_version") == 1 ]] || fail "backup is not the old version"
-[[ $(count old.sqlite "pragma user_version") == 2 ]] || fail "not upgraded"
+[[ $(count old.sqlite "pragma user_version") == 3 ]] || fail "not upgraded"
 run 0 --library "$WORK/old.sqlite" --json library find --smarts 'C=O'
 [[ $(json_get 'd["matches"]') == 1 ]] || fail "substructure search after upgrade"
 [[ $(count old.sqlite "select count(*) from compound_fingerprints") == 2 ]] || fail "fingerprints not filled"
+# Upgrade from version 2 recomputes coupling keys: version 2 keyed this long
+# chain's couplings by atom numbering, so a renumbered file added them again.
+cp "$DATA/v2-chain.sqlite" chain.sqlite
+run 0 --library "$WORK/chain.sqlite" library check
+contains err "upgraded the library from schema version 2 to 3"
+cp "$DATA"/chain-renumbered.* .
+run 0 --library "$WORK/chain.sqlite" --json library import chain-renumbered.csv
+[[ $(json_get 'd["couplings_added"]') == 0 ]] || fail "renumbered chain couplings stored again after the upgrade"
+[[ $(json_get 'len(d["conflicts"])') == 0 ]] || fail "renumbered chain couplings conflict after the upgrade"
+# Merging a version-2 file: its keys are recomputed before they are compared.
+run 0 --library "$WORK/chain-fresh.sqlite" library init
+run 0 --library "$WORK/chain-fresh.sqlite" library import chain-renumbered.csv
+run 0 --library "$WORK/chain-fresh.sqlite" --json library merge "$DATA/v2-chain.sqlite"
+[[ $(json_get 'd["couplings_added"]') == 0 ]] || fail "merging a version-2 library duplicated couplings"
 # A newer library is refused, and a non-library too.
 cp lib.sqlite newer.sqlite
 /usr/bin/python3 -c "import sqlite3; c=sqlite3.connect('newer.sqlite'); c.execute('pragma user_version=99'); c.commit()"

@@ -7,8 +7,9 @@ After every kill the library holds either none or all of the file (couplings
 before, or before + the file's) and `vicinal library check` (SQLite's
 integrity and foreign-key checks plus vicinal's own rules) passes. For an upgrade: the library is still at
 version 1 with its rows and no new table, and a pre-upgrade copy, if present,
-is whole (a version-1 library with the same rows); or it is at version 2 with
-every compound's fingerprint and the copy beside it. These are read directly
+is whole (a version-1 library with the same rows); or it is at the current
+version with every compound's fingerprint and the copy beside it (all
+migrations run in one transaction: no version in between). These are read directly
 with SQLite (integrity and foreign keys first), before `vicinal library
 check` opens the file and finishes the upgrade. Kill delays are drawn over the whole run: some within the
 first 20 ms (start-up, opening), some around the end (commit), the rest
@@ -156,10 +157,12 @@ con.executescript("DROP INDEX couplings_by_isotopes; DROP TABLE compound_fingerp
                   "PRAGMA journal_mode = DELETE; VACUUM;")
 con.close()
 V1_COUPLINGS = one(BIG_V1, "select count(*) from couplings")
+# The schema version this vicinal writes: one migration file per version.
+CURRENT = len([f for f in os.listdir(os.path.join(os.environ["VICINAL_DATA_DIR"], "schema")) if f.endswith(".sql")])
 V1_COMPOUNDS = one(BIG_V1, "select count(*) from compounds")
 shutil.copy(BIG_V1, os.path.join(WORK, "probe.sqlite"))
 upgrade_s = timed("--library", "probe.sqlite", "library", "stats")
-if one(os.path.join(WORK, "probe.sqlite"), "pragma user_version") != 2:
+if one(os.path.join(WORK, "probe.sqlite"), "pragma user_version") != CURRENT:
     sys.exit("FAIL: the version-1 library was not upgraded")
 
 
@@ -240,9 +243,9 @@ while killed_total < KILLS:
         if version == 1:
             if "compound_fingerprints" in tables:
                 sys.exit(f"FAIL: {what}: version 1 with a version-2 table (half an upgrade)")
-        elif version == 2:
+        elif version == CURRENT:
             if one(lib, "select count(*) from compound_fingerprints") != V1_COMPOUNDS:
-                sys.exit(f"FAIL: {what}: version 2 without every fingerprint (half an upgrade)")
+                sys.exit(f"FAIL: {what}: version {version} without every fingerprint (half an upgrade)")
             if not os.path.exists(backup):
                 sys.exit(f"FAIL: {what}: upgraded without the pre-upgrade copy")
         else:
@@ -252,7 +255,7 @@ while killed_total < KILLS:
             if one(backup, "pragma user_version") != 1 or one(backup, "select count(*) from couplings") != V1_COUPLINGS:
                 sys.exit(f"FAIL: {what}: the pre-upgrade copy is not the version-1 library")
         library_check(lib, what)
-        if one(lib, "pragma user_version") != 2 or not os.path.exists(backup):
+        if one(lib, "pragma user_version") != CURRENT or not os.path.exists(backup):
             sys.exit(f"FAIL: {what}: opening again did not finish the upgrade with its copy")
     stats[kind][0 if killed else 1] += 1
     killed_total += killed
