@@ -186,20 +186,39 @@ CouplingRecord CompoundBuilder::coupling(const std::array<std::vector<std::strin
   for (int a : c.atoms_a)
     for (int b : c.atoms_b)
       if (a == b) throw Error(fmt::format("atom {} is coupled to itself", a), at);
-  const int a = c.atoms_a.front(), b = c.atoms_b.front();
-  const int bonds = structure::bond_distance(mol_, a, b);
-  if (bonds < 1) throw Error(fmt::format("{} and {} are not connected by bonds", c.nucleus_a, c.nucleus_b), at);
-  const auto paths = structure::paths_of_length(mol_, a, b, bonds);
-  c.path = paths.empty() ? std::vector<int>{a, b} : paths.front().atoms;
-  c.bond_count = bonds;
-  c.isotope_a = observed_isotope(mol_, a);
-  c.isotope_b = observed_isotope(mol_, b);
+  auto known = pair_facts_.find({c.atoms_a, c.atoms_b});
+  if (known == pair_facts_.end()) {
+    auto facts = facts_of(c.atoms_a, c.atoms_b);
+    if (!facts) throw Error(fmt::format("{} and {} are not connected by bonds", c.nucleus_a, c.nucleus_b), at);
+    known = pair_facts_.emplace(std::make_pair(c.atoms_a, c.atoms_b), std::move(*facts)).first;
+  }
+  const PairFacts& f = known->second;
+  c.path = f.path;
+  c.bond_count = f.bond_count;
+  c.isotope_a = f.isotope_a;
+  c.isotope_b = f.isotope_b;
   c.stereo_unassigned = c.atoms_a.size() > 1 || c.atoms_b.size() > 1;
-  c.ranks_a = identity_->ranks_text(c.atoms_a);
-  c.ranks_b = identity_->ranks_text(c.atoms_b);
-  c.identity = identity_->coupling_key(c.atoms_a, c.atoms_b);
+  c.ranks_a = f.ranks_a;
+  c.ranks_b = f.ranks_b;
+  c.identity = f.identity;
   c.line = where.line;
   return c;
+}
+
+std::optional<CompoundBuilder::PairFacts> CompoundBuilder::facts_of(const std::vector<int>& atoms_a,
+                                                                     const std::vector<int>& atoms_b) {
+  PairFacts f;
+  const int a = atoms_a.front(), b = atoms_b.front();
+  f.bond_count = structure::bond_distance(mol_, a, b);
+  if (f.bond_count < 1) return std::nullopt;
+  const auto paths = structure::paths_of_length(mol_, a, b, f.bond_count);
+  f.path = paths.empty() ? std::vector<int>{a, b} : paths.front().atoms;
+  f.isotope_a = observed_isotope(mol_, a);
+  f.isotope_b = observed_isotope(mol_, b);
+  f.ranks_a = identity_->ranks_text(atoms_a);
+  f.ranks_b = identity_->ranks_text(atoms_b);
+  f.identity = identity_->coupling_key(atoms_a, atoms_b);
+  return f;
 }
 
 }  // namespace vicinal::library

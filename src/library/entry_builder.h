@@ -8,6 +8,7 @@
 #include <openbabel/mol.h>
 
 #include <array>
+#include <map>
 #include <memory>
 #include <optional>
 #include <string>
@@ -47,6 +48,17 @@ class CompoundBuilder {
                           std::optional<double> sigma_hz, const Location& where);
 
  private:
+  // What a pair of atom sets gives every row that names it: worked out once
+  // per pair, as files repeat a pair over many measurement sets.
+  struct PairFacts {
+    std::vector<int> path;
+    int bond_count = 0;
+    std::string isotope_a, isotope_b, ranks_a, ranks_b, identity;
+  };
+  // Nothing when the atoms are not connected by bonds.
+  std::optional<PairFacts> facts_of(const std::vector<int>& atoms_a, const std::vector<int>& atoms_b);
+
+  std::map<std::pair<std::vector<int>, std::vector<int>>, PairFacts> pair_facts_;
   OpenBabel::OBMol mol_;
   structure::AtomLabels labels_;
   std::unique_ptr<CompoundIdentity> identity_;

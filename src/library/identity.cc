@@ -80,13 +80,22 @@ std::string CompoundIdentity::ranks_text(const std::vector<int>& atoms) const {
   return join(ranks);
 }
 
+std::vector<unsigned> CompoundIdentity::classes_of(const std::vector<int>& atoms) const {
+  std::vector<unsigned> out;
+  for (int atom : atoms) out.push_back(symmetry_class_.at(static_cast<std::size_t>(atom - 1)));
+  std::sort(out.begin(), out.end());
+  return out;
+}
+
 std::string CompoundIdentity::marked_smiles(const std::vector<int>& a, const std::vector<int>& b) const {
   structure::LogCapture quiet;
-  // The smaller of the canonical SMILES of the marked molecule and of its
-  // mirror image. The mirror is built (x negated: a reflection for 3D
-  // coordinates and for a flat drawing with wedges alike) and written again: swapping
-  // '@' and '@@' in the string would give a SMILES of the mirror image, but
-  // not always its canonical one, as canonical order breaks ties by stereo.
+  // The canonical SMILES of the marked molecule; where the molecule has a
+  // mirror symmetry, the smaller of that and its mirror image's (enantiotopic
+  // pairs are one coupling). The mirror is built (x negated: a reflection for
+  // 3D coordinates and for a flat drawing with wedges alike) and written
+  // again: swapping '@' and '@@' in the string gives a SMILES of the mirror
+  // image, but not always its canonical one, as canonical order breaks ties
+  // by stereo.
   auto with_marks = [&](unsigned mark_a, unsigned mark_b) {
     OpenBabel::OBMol copy(mol_);
     for (int atom : a) copy.GetAtom(atom)->SetAtomicNum(mark_a);
@@ -97,22 +106,17 @@ std::string CompoundIdentity::marked_smiles(const std::vector<int>& a, const std
       return write_as(copy, "can", "n");
     };
     const std::string smiles = canonical();
+    if (!symmetry_->has_mirror()) return smiles;
     FOR_ATOMS_OF_MOL(atom, copy) atom->SetVector(-atom->GetX(), atom->GetY(), atom->GetZ());
     return std::min(smiles, canonical());
   };
   // Two different marks (one mark on both would let Open Babel, whose
   // symmetry classes ignore hydrogens, take a marked CH3 and a marked H on
   // one carbon for equal groups and miss the stereocentre between them). The
-  // pair is unordered, so both ways round count, unless the elements of the
-  // two sides tell the sides apart (13C-1H): then the lighter side gets mark A.
-  auto element = [&](const std::vector<int>& atoms) {
-    unsigned z = mol_.GetAtom(atoms.front())->GetAtomicNum();
-    for (int atom : atoms)
-      if (mol_.GetAtom(atom)->GetAtomicNum() != z) return 0u;
-    return z;
-  };
-  const unsigned za = element(a), zb = element(b);
-  if (za != 0 && zb != 0 && za != zb) return za < zb ? with_marks(kMarkA, kMarkB) : with_marks(kMarkB, kMarkA);
+  // pair is unordered: when the symmetry classes of the two sides tell them
+  // apart, the side with the smaller classes gets mark A; else both ways round count.
+  const auto class_a = classes_of(a), class_b = classes_of(b);
+  if (class_a != class_b) return class_a < class_b ? with_marks(kMarkA, kMarkB) : with_marks(kMarkB, kMarkA);
   return std::min(with_marks(kMarkA, kMarkB), with_marks(kMarkB, kMarkA));
 }
 
@@ -126,13 +130,7 @@ std::string CompoundIdentity::coupling_key(const std::vector<int>& a, const std:
   if (!symmetry_->complete()) {
     // Too symmetric to list: symmetry classes name the atoms, the marked
     // SMILES tells stereo-distinct pairs apart.
-    auto classes = [&](const std::vector<int>& atoms) {
-      std::vector<unsigned> out;
-      for (int atom : atoms) out.push_back(symmetry_class_.at(static_cast<std::size_t>(atom - 1)));
-      std::sort(out.begin(), out.end());
-      return out;
-    };
-    auto x = classes(a), y = classes(b);
+    auto x = classes_of(a), y = classes_of(b);
     if (y < x) std::swap(x, y);
     key = "s:" + join(x) + "~" + join(y) + "/" + marked_smiles(a, b);
   } else {

@@ -45,6 +45,8 @@ class CompoundIdentity {
   std::string ranks_text(const std::vector<int>& atoms) const;
 
  private:
+  // Open Babel's symmetry classes of atoms (numbering-independent), ascending.
+  std::vector<unsigned> classes_of(const std::vector<int>& atoms) const;
   std::string marked_smiles(const std::vector<int>& a, const std::vector<int>& b) const;
 
   OpenBabel::OBMol mol_;

@@ -245,6 +245,13 @@ PairSymmetry::PairSymmetry(OpenBabel::OBMol& mol, const std::vector<unsigned>& s
       if (!is_unit(b.v)) c.bonds.push_back(i);
     }
   }
+  // A mirror symmetry: some automorphism inverts every centre and keeps
+  // every double bond.
+  const std::vector<bool> none(n, false);
+  has_mirror_ = std::any_of(maps_.begin(), maps_.end(), [&](const SkeletonMap& map) {
+    std::vector<unsigned> p = map.permutation;
+    return holds(map, p, none, true);
+  });
 }
 
 PairSymmetry::Pair PairSymmetry::image(const std::vector<unsigned>& a, const std::vector<unsigned>& b,
@@ -304,17 +311,20 @@ bool PairSymmetry::satisfiable(const Component& component, const SkeletonMap& ma
   return place(0);
 }
 
+bool PairSymmetry::holds(const SkeletonMap& map, std::vector<unsigned>& p, const std::vector<bool>& pinned,
+                         bool inverted) const {
+  for (std::size_t i : fixed_centres_)
+    if (!geometry_->centre_holds(i, p, inverted)) return false;
+  for (std::size_t i : fixed_bonds_)
+    if (!geometry_->bond_holds(i, p)) return false;
+  for (const auto& component : components_)
+    if (!satisfiable(component, map, p, pinned, inverted)) return false;
+  return true;
+}
+
 bool PairSymmetry::keeps_geometry(const SkeletonMap& map, std::vector<unsigned>& p,
                                   const std::vector<bool>& pinned) const {
-  for (bool inverted : {false, true}) {
-    bool holds = true;
-    for (std::size_t i : fixed_centres_) holds = holds && geometry_->centre_holds(i, p, inverted);
-    for (std::size_t i : fixed_bonds_) holds = holds && geometry_->bond_holds(i, p);
-    for (const auto& component : components_)
-      holds = holds && satisfiable(component, map, p, pinned, inverted);
-    if (holds) return true;
-  }
-  return false;
+  return holds(map, p, pinned, false) || holds(map, p, pinned, true);
 }
 
 PairSymmetry::Orbit PairSymmetry::orbit(const std::vector<unsigned>& a, const std::vector<unsigned>& b) const {

@@ -46,6 +46,11 @@ class PairSymmetry {
     bool split_by_geometry;  // some images are reached only by changing the 3D arrangement
     Pair smallest_kept;      // the smallest image reached keeping it: names the pair up to 3D symmetry
   };
+  // Whether some automorphism turns the 3D arrangement into its mirror image
+  // (the molecule is achiral, or has enantiotopic groups). Without one, no
+  // pair is the mirror image of another. True when not complete().
+  bool has_mirror() const { return has_mirror_; }
+
   // The orbit of the pair of atom sets `a`, `b` (0-based atoms).
   Orbit orbit(const std::vector<unsigned>& a, const std::vector<unsigned>& b) const;
 
@@ -69,6 +74,9 @@ class PairSymmetry {
   };
 
   Pair image(const std::vector<unsigned>& a, const std::vector<unsigned>& b, const std::vector<unsigned>& p) const;
+  // Whether the unpinned leaves can be placed so that every centre holds (or,
+  // if `inverted`, inverts) and every double bond keeps cis/trans.
+  bool holds(const SkeletonMap& map, std::vector<unsigned>& p, const std::vector<bool>& pinned, bool inverted) const;
   bool keeps_geometry(const SkeletonMap& map, std::vector<unsigned>& p, const std::vector<bool>& pinned) const;
   bool satisfiable(const Component& component, const SkeletonMap& map, std::vector<unsigned>& p,
                    const std::vector<bool>& pinned, bool inverted) const;
@@ -83,6 +91,7 @@ class PairSymmetry {
   std::vector<Component> components_;
   std::vector<std::size_t> fixed_centres_, fixed_bonds_;  // depend on no leaf permutation
   bool complete_ = true;
+  bool has_mirror_ = true;  // assumed when the listing is incomplete
 };
 
 }  // namespace vicinal::library
