@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <charconv>
 #include <map>
 
 #include "core/error.h"
@@ -27,17 +28,17 @@ std::string join_atoms(const std::vector<int>& atoms, char separator) {
 
 std::vector<int> split_atoms(const std::string& text, char separator) {
   std::vector<int> out;
-  std::size_t start = 0;
-  while (start <= text.size() && !text.empty()) {
-    const auto end = text.find(separator, start);
-    const std::string part = text.substr(start, end == std::string::npos ? std::string::npos : end - start);
-    try {
-      out.push_back(std::stoi(part));
-    } catch (const std::exception&) {
+  if (text.empty()) return out;
+  const char* p = text.data();
+  const char* const end = p + text.size();
+  for (;;) {
+    int value = 0;
+    const auto [next, ec] = std::from_chars(p, end, value);
+    if (ec != std::errc() || next == p || (next != end && *next != separator))
       throw Error(fmt::format("stored atom list '{}' is damaged", text), {}, "run 'vicinal library check'");
-    }
-    if (end == std::string::npos) break;
-    start = end + 1;
+    out.push_back(value);
+    if (next == end) break;
+    p = next + 1;
   }
   return out;
 }
