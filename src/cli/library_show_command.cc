@@ -58,15 +58,6 @@ void run_show(const std::string& what, const Globals& g) {
   const auto id = library::find_compound(lib->db(), what);
   const auto entries = lib->read_entries({id});
   const auto& e = entries.at(0);
-  // Derived results (library derive), paired with the couplings in entry order.
-  const auto derived = library::read_derived(lib->db(), id);
-  const auto coupling_ids = library::coupling_ids_in_entry_order(lib->db(), id);
-  std::size_t next = 0;
-  auto derived_of_next = [&]() -> std::vector<library::DerivedResult> {
-    const auto it = next < coupling_ids.size() ? derived.find(coupling_ids[next]) : derived.end();
-    ++next;
-    return it == derived.end() ? std::vector<library::DerivedResult>{} : it->second;
-  };
   const auto& c = e.compound;
   if (g.json) {
     Json doc = {{"id", id}, {"name", c.name}, {"inchikey", c.inchikey}, {"inchi", c.inchi}, {"smiles", c.smiles},
@@ -88,7 +79,7 @@ void run_show(const std::string& what, const Globals& g) {
                   {"canonical_ranks", {x.ranks_a, x.ranks_b}}, {"identity", x.identity},
                   {"karplus_set", x.karplus_set}, {"note", x.note}, {"origin", x.origin}};
         j["sigma_hz"] = x.sigma_hz ? Json(*x.sigma_hz) : Json();
-        j["derived"] = derived_json(derived_of_next());
+        j["derived"] = derived_json(library::by_karplus_set(x.derived));
         sj["couplings"].push_back(std::move(j));
       }
       doc["sets"].push_back(std::move(sj));
@@ -111,7 +102,7 @@ void run_show(const std::string& what, const Globals& g) {
                  fmt::format("{}J({},{})", x.bond_count, x.isotope_a, x.isotope_b),
                  fmt::format("{}{}{}", x.sign_known && x.j_hz > 0 ? "+" : "", x.j_hz, seen[x.identity] > 1 ? " !" : ""),
                  optional_text(x.sigma_hz), x.stereo_unassigned ? "stereo-unassigned" : "assigned",
-                 derived_text(derived_of_next()), x.note, x.origin});
+                 derived_text(library::by_karplus_set(x.derived)), x.note, x.origin});
     text += t.render();
   }
   if (e.sets.empty()) text += "\n(no couplings stored)\n";

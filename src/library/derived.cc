@@ -138,29 +138,12 @@ DeriveReport derive_dihedral_intervals(Database& db, const DeriveOptions& option
   return report;
 }
 
-std::map<std::int64_t, std::vector<DerivedResult>> read_derived(Database& db, std::int64_t compound_id) {
-  Statement read(db,
-                 "SELECT d.coupling_id, d.karplus_set, d.from_deg, d.to_deg FROM derived_results d "
-                 "JOIN couplings k ON k.id = d.coupling_id JOIN measurement_sets s ON s.id = k.set_id "
-                 "WHERE s.compound_id = ? ORDER BY d.coupling_id, d.karplus_set, d.from_deg");
-  read.bind(1, compound_id);
-  std::map<std::int64_t, std::vector<DerivedResult>> out;
-  while (read.step()) {
-    auto& list = out[read.integer(0)];
-    const std::string set = read.text(1);
-    if (list.empty() || list.back().karplus_set != set) list.push_back({set, {}});
-    list.back().intervals.push_back({read.real(2), read.real(3)});
+std::vector<DerivedResult> by_karplus_set(const std::vector<DerivedRecord>& rows) {
+  std::vector<DerivedResult> out;
+  for (const auto& row : rows) {
+    if (out.empty() || out.back().karplus_set != row.karplus_set) out.push_back({row.karplus_set, {}});
+    out.back().intervals.push_back({row.from_deg, row.to_deg});
   }
-  return out;
-}
-
-std::vector<std::int64_t> coupling_ids_in_entry_order(Database& db, std::int64_t compound_id) {
-  Statement read(db,
-                 "SELECT k.id FROM couplings k JOIN measurement_sets s ON s.id = k.set_id WHERE s.compound_id = ? "
-                 "ORDER BY s.id, k.id");
-  read.bind(1, compound_id);
-  std::vector<std::int64_t> out;
-  while (read.step()) out.push_back(read.integer(0));
   return out;
 }
 

@@ -44,12 +44,9 @@ struct DeriveReport {
 // lies outside what the set's curve can reach.
 DeriveReport derive_dihedral_intervals(Database& db, const DeriveOptions& options, Progress& progress);
 
-// The derived results of one compound's couplings, by coupling id.
-std::map<std::int64_t, std::vector<DerivedResult>> read_derived(Database& db, std::int64_t compound_id);
-
-// Coupling ids of one compound in the order read_entries gives its couplings
-// (sets by id, couplings by id), to pair entries with read_derived.
-std::vector<std::int64_t> coupling_ids_in_entry_order(Database& db, std::int64_t compound_id);
+// A coupling's derived rows (as read_entries gives them, ordered by set and
+// interval) grouped by Karplus set.
+std::vector<DerivedResult> by_karplus_set(const std::vector<DerivedRecord>& rows);
 
 // Derived rows travelling with entries (CouplingRecord::derived), so that
 // export, import and merge keep them.
