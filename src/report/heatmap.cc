@@ -1,18 +1,14 @@
 #include "report/heatmap.h"
 
-#include <cairo-pdf.h>
-#include <cairo-svg.h>
 #include <cairo.h>
 #include <fmt/format.h>
 
 #include <algorithm>
 #include <cmath>
-#include <memory>
 
-#include "core/atomic_file.h"
 #include "core/error.h"
 #include "report/axis_ticks.h"
-#include "report/cairo_handles.h"
+#include "report/drawing_output.h"
 #include "report/plot_text.h"
 
 namespace vicinal::report {
@@ -39,8 +35,6 @@ Rgb colour_at(double t) {
   return {kScale[i].r + f * (kScale[i + 1].r - kScale[i].r), kScale[i].g + f * (kScale[i + 1].g - kScale[i].g),
           kScale[i].b + f * (kScale[i + 1].b - kScale[i].b)};
 }
-
-void check(cairo_status_t status, const std::string& where) { check_cairo(status, where, "the heat map"); }
 
 void validate(const HeatMap& m) {
   if (m.x.size() < 2 || m.y.size() < 2 || m.value.size() != m.x.size() * m.y.size())
@@ -180,61 +174,23 @@ void draw(cairo_t* cr, PlotText& text, const HeatMap& m) {
     text.draw(foot[i], pad, H - pad - foot_height + static_cast<double>(i) * 8 * 1.3, 0, VAlign::Top);
 }
 
-void render(cairo_surface_t* surface, const HeatMap& m, double scale, std::vector<TextItem>* layer,
-            const std::string& where) {
-  check(cairo_surface_status(surface), where);
-  Context cr(cairo_create(surface));
-  cairo_scale(cr.get(), scale, scale);
-  PlotText text(cr.get(), layer);
-  draw(cr.get(), text, m);
-  check(cairo_status(cr.get()), where);
-  cairo_surface_flush(surface);
+// The heat map as a drawing for report/drawing_output; PNG at two pixels per
+// point, so that single cells stay sharp.
+Drawing drawing_of(const HeatMap& m) {
+  return {m.title, "the heat map", m.width_pt, m.height_pt, 2.0,
+          [&m](cairo_t* cr, PlotText& text) { draw(cr, text, m); }};
 }
 
 }  // namespace
 
 std::string heatmap_svg(const HeatMap& m) {
   validate(m);
-  std::string svg;
-  std::vector<TextItem> layer;
-  {
-    Surface surface(cairo_svg_surface_create_for_stream(
-        [](void* closure, const unsigned char* data, unsigned int length) {
-          static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
-          return CAIRO_STATUS_SUCCESS;
-        },
-        &svg, m.width_pt, m.height_pt));
-    render(surface.get(), m, 1.0, &layer, "SVG heat map");
-    cairo_surface_finish(surface.get());
-    check(cairo_surface_status(surface.get()), "SVG heat map");
-  }
-  return finish_svg(svg, m.title, layer);
+  return drawing_svg(drawing_of(m));
 }
 
 void save_heatmap(const HeatMap& m, const std::filesystem::path& path) {
   validate(m);
-  std::string ext = path.extension().string();
-  std::transform(ext.begin(), ext.end(), ext.begin(), [](unsigned char c) { return std::tolower(c); });
-  if (ext != ".svg" && ext != ".pdf" && ext != ".png")
-    throw Error(fmt::format("cannot tell the figure format from the extension '{}'", path.extension().string()),
-                {path.string()}, "name the file .svg, .pdf or .png");
-  if (ext == ".svg") {
-    write_file_atomically(path, heatmap_svg(m));
-    return;
-  }
-  write_via_temporary(path, [&](const std::filesystem::path& temporary) {
-    if (ext == ".pdf") {
-      Surface surface(cairo_pdf_surface_create(temporary.c_str(), m.width_pt, m.height_pt));
-      render(surface.get(), m, 1.0, nullptr, path.string());
-      cairo_surface_finish(surface.get());
-      check(cairo_surface_status(surface.get()), path.string());
-    } else {
-      Surface surface(cairo_image_surface_create(CAIRO_FORMAT_ARGB32, static_cast<int>(m.width_pt * 2),
-                                                 static_cast<int>(m.height_pt * 2)));
-      render(surface.get(), m, 2.0, nullptr, path.string());
-      check(cairo_surface_write_to_png(surface.get(), temporary.c_str()), path.string());
-    }
-  });
+  save_drawing(drawing_of(m), path);
 }
 
 }  // namespace vicinal::report

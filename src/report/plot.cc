@@ -1,7 +1,5 @@
 #include "report/plot.h"
 
-#include <cairo-pdf.h>
-#include <cairo-svg.h>
 #include <cairo.h>
 #include <fmt/format.h>
 
@@ -9,14 +7,12 @@
 #include <array>
 #include <cmath>
 #include <limits>
-#include <memory>
 #include <numbers>
 #include <optional>
 
-#include "core/atomic_file.h"
 #include "core/error.h"
 #include "report/axis_ticks.h"
-#include "report/cairo_handles.h"
+#include "report/drawing_output.h"
 #include "report/plot_text.h"
 
 namespace vicinal::report {
@@ -619,76 +615,18 @@ void draw(cairo_t* cr, PlotText& text, const Figure& figure) {
               VAlign::Top);
 }
 
-void check(cairo_status_t status, const std::string& where) { check_cairo(status, where, "the figure"); }
-
-// Draws onto `surface` (units of points after `scale`) and finishes it.
-void render(cairo_surface_t* surface, const Figure& figure, double scale, std::vector<TextItem>* layer,
-            const std::string& where) {
-  check(cairo_surface_status(surface), where);
-  Context cr(cairo_create(surface));
-  cairo_scale(cr.get(), scale, scale);
-  PlotText text(cr.get(), layer);
-  draw(cr.get(), text, figure);
-  check(cairo_status(cr.get()), where);
-  cairo_surface_flush(surface);
-}
-
-std::string lower_extension(const std::filesystem::path& path) {
-  std::string ext = path.extension().string();
-  std::transform(ext.begin(), ext.end(), ext.begin(), [](unsigned char c) { return std::tolower(c); });
-  return ext;
+// The figure as a drawing for report/drawing_output.
+Drawing drawing_of(const Figure& figure) {
+  const auto [w, h] = page_size(figure);
+  const double png_scale = std::isfinite(figure.png_scale) ? std::clamp(figure.png_scale, 0.25, 4.0) : 1.0;
+  return {figure.title, "the figure", w, h, png_scale,
+          [&figure](cairo_t* cr, PlotText& text) { draw(cr, text, figure); }};
 }
 
 }  // namespace
 
-std::string figure_svg(const Figure& figure) {
-  std::string svg;
-  std::vector<TextItem> layer;
-  {
-    Surface surface(cairo_svg_surface_create_for_stream(
-        [](void* closure, const unsigned char* data, unsigned int length) {
-          static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
-          return CAIRO_STATUS_SUCCESS;
-        },
-        &svg, page_size(figure).first, page_size(figure).second));
-    render(surface.get(), figure, 1.0, &layer, "SVG figure");
-    cairo_surface_finish(surface.get());
-    check(cairo_surface_status(surface.get()), "SVG figure");
-  }
-  return finish_svg(svg, figure.title, layer);
-}
+std::string figure_svg(const Figure& figure) { return drawing_svg(drawing_of(figure)); }
 
-void save_figure(const Figure& figure, const std::filesystem::path& path) {
-  const std::string ext = lower_extension(path);
-  if (ext != ".svg" && ext != ".pdf" && ext != ".png")
-    throw Error(fmt::format("cannot tell the figure format from the extension '{}'", path.extension().string()),
-                {path.string()}, "name the file .svg, .pdf or .png");
-  if (ext == ".svg") {
-    write_file_atomically(path, figure_svg(figure));
-    return;
-  }
-  // Plain variables, not a structured binding: clang before 16 (the fuzz
-  // build's compiler) cannot capture structured bindings in a lambda.
-  const auto page = page_size(figure);
-  const double w = page.first, h = page.second;
-  write_via_temporary(path, [&](const std::filesystem::path& temporary) {
-    if (ext == ".pdf") {
-      Surface surface(cairo_pdf_surface_create(temporary.c_str(), w, h));
-      check(cairo_surface_status(surface.get()), path.string());
-      cairo_pdf_surface_set_metadata(surface.get(), CAIRO_PDF_METADATA_TITLE,
-                                     valid_utf8(figure.title).c_str());
-      cairo_pdf_surface_set_metadata(surface.get(), CAIRO_PDF_METADATA_CREATOR, "vicinal");
-      render(surface.get(), figure, 1.0, nullptr, path.string());
-      cairo_surface_finish(surface.get());
-      check(cairo_surface_status(surface.get()), path.string());
-    } else {
-      const double scale = std::isfinite(figure.png_scale) ? std::clamp(figure.png_scale, 0.25, 4.0) : 1.0;
-      Surface surface(cairo_image_surface_create(CAIRO_FORMAT_ARGB32, static_cast<int>(std::lround(w * scale)),
-                                                 static_cast<int>(std::lround(h * scale))));
-      render(surface.get(), figure, scale, nullptr, path.string());
-      check(cairo_surface_write_to_png(surface.get(), temporary.c_str()), path.string());
-    }
-  });
-}
+void save_figure(const Figure& figure, const std::filesystem::path& path) { save_drawing(drawing_of(figure), path); }
 
 }  // namespace vicinal::report
