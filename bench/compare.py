@@ -302,7 +302,7 @@ def main():
            "file with explicit hydrogens (RDKit ETKDG, fixed seeds), then many H-H couplings per compound over "
            "many measurement sets (four solvents, a temperature series), compound by compound. vicinal: "
            "`library import` into a fresh library (created by `library init`, not timed): reads and checks every "
-           "row, computes each compound's InChI, InChIKey, canonical ranks, automorphisms and fingerprint once, "
+           "row, computes each compound's InChI, InChIKey, canonical ranks, symmetry and fingerprint once, "
            "each distinct coupling's identity key once, and stores everything in one transaction with its "
            "indexes. Ceiling: SQLite's own bulk insert of the same CSV rows into one plain table without indexes "
            "in one transaction: the sqlite3 shell's `.import --csv` (C, prepared statement) and Python "
@@ -378,7 +378,7 @@ def main():
            "fingerprint contains the query's, then reads every coupling of the matching compounds (find returns "
            "couplings; --limit only shortens the printout); the scan reads every structure file and tests the SMARTS "
            "on each, nothing more. "
-           f"{compounds} compounds, not 100,000: each takes tens of ms to import (InChI, automorphisms), so a "
+           f"{compounds} compounds, not 100,000: each takes about 10 ms to import (InChI, marked canonical SMILES), so a "
            "100,000-compound library is too slow to build in a benchmark run.", ""]
     md += HEADER + rows_for(res, compounds, "compounds/s", "vicinal library find --smarts")
     md += ["", f"`library show --json` of one compound (about {lib_sizes[-1] // compounds:,} couplings), whole "
