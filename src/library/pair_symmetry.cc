@@ -238,12 +238,12 @@ PairSymmetry::PairSymmetry(OpenBabel::OBMol& mol, const std::vector<unsigned>& s
       fixed_bonds_.push_back(i);
       continue;
     }
-    // u and v, when both are units, were joined above: one component.
-    if (is_unit(b.v)) component_for(b.v).bonds.push_back(i);
-    if (is_unit(b.u)) {
-      Component& c = component_for(b.u);
-      if (!is_unit(b.v)) c.bonds.push_back(i);
-    }
+    // u and v, when both are units, were joined above: one component, which
+    // the second call finds (so the first call's component is not moved).
+    Component* component = nullptr;
+    for (unsigned end : {b.u, b.v})
+      if (is_unit(end)) component = &component_for(end);
+    component->bonds.push_back(i);
   }
   // A mirror symmetry: some automorphism inverts every centre and keeps
   // every double bond.
