@@ -1,8 +1,11 @@
 #include "library/rekey.h"
 
+#include <fmt/format.h>
+
 #include <cstdint>
 #include <string>
 
+#include "core/error.h"
 #include "library/entry_builder.h"
 #include "library/identity.h"
 
@@ -16,6 +19,17 @@ std::string rekeyed(CompoundIdentity& identity, const std::vector<int>& a, const
                     const std::string& old_key) {
   const auto hash = old_key.find('#');
   return identity.coupling_key(a, b) + (hash == std::string::npos ? "" : old_key.substr(hash));
+}
+
+// The identity of a compound from its stored molfile. A molfile that no
+// longer reads means a damaged library: say so, not how to write an import.
+CompoundIdentity stored_identity(const std::string& library, const std::string& name, const std::string& molfile) {
+  try {
+    return CompoundIdentity(molecule_from_molfile(molfile, library), name);
+  } catch (const Error& e) {
+    throw Error(fmt::format("compound '{}': cannot recompute coupling keys: {}", name, e.what_happened()), {library},
+                "the library holding it is damaged; nothing was changed");
+  }
 }
 
 }  // namespace
@@ -35,8 +49,7 @@ int rekey_stored_couplings(Database& db) {
 
   int changed = 0;
   for (const auto& compound : todo) {
-    CompoundIdentity identity(molecule_from_molfile(compound.molfile, "stored compound '" + compound.name + "'"),
-                              compound.name);
+    CompoundIdentity identity = stored_identity(db.path(), compound.name, compound.molfile);
     std::vector<std::pair<std::int64_t, std::string>> updates;
     couplings.bind(1, compound.id);
     while (couplings.step()) {
@@ -54,11 +67,9 @@ int rekey_stored_couplings(Database& db) {
   return changed;
 }
 
-void rekey_entries(std::vector<Entry>& entries) {
+void rekey_entries(std::vector<Entry>& entries, const std::string& library) {
   for (auto& entry : entries) {
-    CompoundIdentity identity(
-        molecule_from_molfile(entry.compound.molfile, "stored compound '" + entry.compound.name + "'"),
-        entry.compound.name);
+    CompoundIdentity identity = stored_identity(library, entry.compound.name, entry.compound.molfile);
     for (auto& set : entry.sets)
       for (auto& c : set.couplings) c.identity = rekeyed(identity, c.atoms_a, c.atoms_b, c.identity);
   }

@@ -4,6 +4,7 @@
 // with many automorphisms, and name pairs with two marker elements.
 #pragma once
 
+#include <string>
 #include <vector>
 
 #include "library/records.h"
@@ -16,10 +17,12 @@ constexpr int kCurrentKeysVersion = 3;
 
 // Rewrites the identity of every stored coupling whose key is computed
 // differently now. Runs inside the caller's write transaction. Returns the
-// number of couplings whose key changed.
+// number of couplings whose key changed. vicinal::Error, naming the library
+// and the compound, when a stored structure no longer reads.
 int rekey_stored_couplings(Database& db);
 
-// The same for entries read from an older library (before merging them).
-void rekey_entries(std::vector<Entry>& entries);
+// The same for entries read from the older library file `library` (before
+// merging them).
+void rekey_entries(std::vector<Entry>& entries, const std::string& library);
 
 }  // namespace vicinal::library

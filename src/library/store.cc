@@ -321,7 +321,7 @@ std::vector<Entry> read_other_library(const std::string& path) {
           check_derived(c.derived[i], path,
                         fmt::format("compound \"{}\", set \"{}\", coupling {},{}, derived[{}]", e.compound.name,
                                     s.conditions.name, c.nucleus_a, c.nucleus_b, i));
-  if (version < kCurrentKeysVersion) rekey_entries(entries);
+  if (version < kCurrentKeysVersion) rekey_entries(entries, path);
   return entries;
 }
 

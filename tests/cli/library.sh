@@ -205,6 +205,12 @@ run 0 --library "$WORK/chain-fresh.sqlite" library init
 run 0 --library "$WORK/chain-fresh.sqlite" library import chain-renumbered.csv
 run 0 --library "$WORK/chain-fresh.sqlite" --json library merge "$DATA/v2-chain.sqlite"
 [[ $(json_get 'd["couplings_added"]') == 0 ]] || fail "merging a version-2 library duplicated couplings"
+# A version-2 library whose stored structure no longer reads: the upgrade is
+# refused with the library and compound named, and the file stays at version 2.
+cp "$DATA/v2-chain.sqlite" damaged.sqlite
+/usr/bin/python3 -c "import sqlite3; c=sqlite3.connect('damaged.sqlite'); c.execute(\"update compounds set molfile='garbage'\"); c.commit()"
+run 2 --library "$WORK/damaged.sqlite" library check; one_line_error; contains err "bromo-icosanol"; contains err "damaged.sqlite"
+[[ $(count damaged.sqlite "pragma user_version") == 2 ]] || fail "a failed upgrade changed the version"
 # A newer library is refused, and a non-library too.
 cp lib.sqlite newer.sqlite
 /usr/bin/python3 -c "import sqlite3; c=sqlite3.connect('newer.sqlite'); c.execute('pragma user_version=99'); c.commit()"
