@@ -7,7 +7,7 @@
 #include "cli/library_common.h"
 #include "core/atomic_file.h"
 #include "core/csv.h"
-#include "library/formats.h"
+#include "library/import.h"
 
 namespace vicinal::cli {
 
@@ -19,16 +19,32 @@ struct Options {
   std::string rejects;
 };
 
+// Removes a library this command created, with SQLite's side files, so that
+// a refused file leaves nothing behind.
+void remove_created_library(const std::string& path) {
+  std::error_code ignored;
+  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix, ignored);
+}
+
 void run_import(const Options& o, const Globals& g) {
   library::ImportOptions options;
   options.skip_bad = o.skip_bad;
-  // Everything is read and checked before the library is touched.
-  const auto result = library::read_exchange_file(o.file, options);
   const bool existed = std::filesystem::exists(g.library_path());
   auto lib = open_library(g, true);
-  if (!existed) g.note(fmt::format("created the library {}", lib->path()));
   auto progress = g.progress();
-  const auto report = lib->store(result.entries, *progress);
+  library::ImportOutcome outcome;
+  try {
+    outcome = library::import_file(*lib, o.file, options, *progress, g.thread_count());
+  } catch (...) {
+    if (!existed) {
+      lib.reset();
+      remove_created_library(g.library_path());
+    }
+    throw;
+  }
+  if (!existed) g.note(fmt::format("created the library {}", lib->path()));
+  const auto& result = outcome.read;
+  const auto& report = outcome.stored;
 
   Json doc = {{"file", o.file}, {"couplings_read", result.couplings}};
   if (!result.rejects.empty()) {

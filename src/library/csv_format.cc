@@ -13,10 +13,12 @@
 //   origin                   where the value came from (default: this file)
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <map>
 #include <memory>
 #include <set>
+#include <utility>
 
 #include "core/csv.h"
 #include "core/parse.h"
@@ -51,7 +53,50 @@ std::string fmt_optional(const std::optional<double>& v) { return v ? fmt::forma
 
 }  // namespace
 
-ImportResult read_csv(const std::string& path, const ImportOptions& options) {
+namespace {
+
+// Entries being gathered from rows, with where each compound and set is.
+struct Gathered {
+  std::vector<Entry> entries;
+  std::map<std::string, std::size_t> entry_of_key;  // builder key -> entry index
+  std::map<std::string, std::size_t> set_of_key;    // entry index + set text -> set index
+  std::size_t couplings = 0;
+  // The previous row's compound and set: rows of a set mostly come together.
+  std::string last_key, last_set_text;
+  std::size_t last_entry = 0, last_set = 0;
+
+  // `set_text` is equal for equal conditions and imported_from.
+  void add(const std::string& key, const CompoundBuilder& builder, const SetRecord& set, const std::string& set_text,
+           CouplingRecord&& c) {
+    if (couplings == 0 || key != last_key || set_text != last_set_text) {
+      auto it = entry_of_key.find(key);
+      if (it == entry_of_key.end()) {
+        it = entry_of_key.emplace(key, entries.size()).first;
+        entries.push_back({builder.record(), {}});
+      }
+      Entry& entry = entries[it->second];
+      auto [s, new_set] = set_of_key.emplace(std::to_string(it->second) + '\x1e' + set_text, entry.sets.size());
+      if (new_set) entry.sets.push_back(set);
+      last_key = key;
+      last_set_text = set_text;
+      last_entry = it->second;
+      last_set = s->second;
+    }
+    entries[last_entry].sets[last_set].couplings.push_back(std::move(c));
+    ++couplings;
+  }
+
+  std::vector<Entry> take() {
+    entry_of_key.clear();
+    set_of_key.clear();
+    couplings = 0;
+    return std::exchange(entries, {});
+  }
+};
+
+}  // namespace
+
+ImportResult read_csv(const std::string& path, const ImportOptions& options, const EntrySink& sink) {
   const CsvTable table = CsvTable::read_file(path);
   const predict::CouplingRowParser parser(table, true);
 
@@ -87,10 +132,23 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options) {
   std::map<std::string, std::unique_ptr<CompoundBuilder>> builders;
   std::map<std::string, std::string> failed;
   std::map<std::string, std::string> key_of_name;  // compound name -> builder key
-  std::map<std::string, std::size_t> entry_of_key;
-  std::map<std::string, std::size_t> set_of_key;  // entry key + conditions + imported_from -> set index
+  // A file of more than one batch goes to the sink as it is read, but its
+  // stereo-unassigned rows are held back to the end (EntryBatch).
+  const std::size_t rows_total = table.rows().size();
+  const bool in_batches = sink && rows_total > options.batch_couplings;
+  Gathered rows, held_back;
+  std::size_t rows_read = 0;
+  std::vector<std::size_t> condition_columns;
+  for (const auto& name : kSetColumns)
+    if (const auto c = column(name)) condition_columns.push_back(*c);
+  std::vector<std::string> last_conditions(table.header().size());
+  bool have_conditions = false;
+  SetRecord set_template;
+  std::string set_text;
 
   for (const CsvRow& row : table.rows()) {
+    ++rows_read;
+    if (in_batches && rows.couplings >= options.batch_couplings) sink({rows.take(), rows_read - 1, rows_total});
     try {
       const predict::CouplingRow parsed = parser.parse(row);
       const std::string name = field(row, "compound");
@@ -143,21 +201,32 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options) {
                                 builder.record().inchikey),
                     where(row, "inchikey"), "check that the structure is the intended compound");
 
-      SetRecord set_template;
-      Conditions& k = set_template.conditions;
-      k.name = field(row, "measurement");
-      k.solvent = field(row, "solvent");
-      k.temperature_k = number(row, "temperature_k");
-      k.field_mhz = number(row, "field_mhz");
-      k.ph = number(row, "ph");
-      k.instrument = field(row, "instrument");
-      k.method = field(row, "method");
-      k.measured_by = field(row, "measured_by");
-      k.measured_on = field(row, "measured_on");
-      k.source = field(row, "source");
-      check_conditions(k, Location(path, row.line));
-      set_template.imported_from = field(row, "imported_from");
-      if (set_template.imported_from.empty()) set_template.imported_from = path;
+      // A set's conditions are read and checked once for a run of rows that
+      // give them identically.
+      const bool same_conditions =
+          have_conditions && std::all_of(condition_columns.begin(), condition_columns.end(), [&](std::size_t i) {
+            return row.fields[i] == last_conditions[i];
+          });
+      if (!same_conditions) {
+        have_conditions = false;
+        Conditions& k = set_template.conditions;
+        k.name = field(row, "measurement");
+        k.solvent = field(row, "solvent");
+        k.temperature_k = number(row, "temperature_k");
+        k.field_mhz = number(row, "field_mhz");
+        k.ph = number(row, "ph");
+        k.instrument = field(row, "instrument");
+        k.method = field(row, "method");
+        k.measured_by = field(row, "measured_by");
+        k.measured_on = field(row, "measured_on");
+        k.source = field(row, "source");
+        check_conditions(k, Location(path, row.line));
+        set_template.imported_from = field(row, "imported_from");
+        if (set_template.imported_from.empty()) set_template.imported_from = path;
+        set_text = conditions_key(k) + '\x1e' + set_template.imported_from;
+        for (const auto i : condition_columns) last_conditions[i] = row.fields[i];
+        have_conditions = true;
+      }
 
       CouplingRecord c = builder.coupling(parsed.nuclei, *parsed.j_hz, parsed.sigma_hz, Location(path, row.line));
       c.karplus_set = parsed.set;
@@ -166,21 +235,18 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options) {
       c.origin = field(row, "origin");
       if (c.origin.empty()) c.origin = path;
 
-      auto it = entry_of_key.find(key);
-      if (it == entry_of_key.end()) {
-        it = entry_of_key.emplace(key, result.entries.size()).first;
-        result.entries.push_back({builder.record(), {}});
-      }
-      Entry& entry = result.entries[it->second];
-      const std::string set_key = std::to_string(it->second) + '\x1e' + conditions_key(k) + '\x1e' + set_template.imported_from;
-      auto [s, new_set] = set_of_key.emplace(set_key, entry.sets.size());
-      if (new_set) entry.sets.push_back(std::move(set_template));
-      entry.sets[s->second].couplings.push_back(std::move(c));
+      (in_batches && c.stereo_unassigned ? held_back : rows).add(key, builder, set_template, set_text, std::move(c));
       ++result.couplings;
     } catch (const Error& e) {
       if (!options.skip_bad) throw;
       result.rejects.push_back({fmt::format("{}:{}", path, row.line), e.one_line()});
     }
+  }
+  if (!sink) {
+    result.entries = rows.take();
+  } else {
+    sink({rows.take(), rows_total, rows_total});
+    if (held_back.couplings) sink({held_back.take(), rows_total, rows_total});
   }
   return result;
 }

@@ -14,6 +14,7 @@
 
 #include "core/nuclei.h"
 #include "core/parse.h"
+#include "library/fingerprint.h"
 #include "structure/coupling_path.h"
 #include "structure/molecule_format.h"
 #include "structure/molecule_io.h"
@@ -153,6 +154,9 @@ CompoundBuilder::CompoundBuilder(const std::string& name, const StructureSpec& s
   record_.smiles = identity_->smiles();
   record_.inchi = identity_->inchi();
   record_.inchikey = identity_->inchikey();
+  // Here rather than in the store, so that a pipelined import keeps every
+  // Open Babel call on the reading thread.
+  record_.fingerprint = compound_fingerprint(record_.smiles);
   record_.labels.assign(labels_.all().begin(), labels_.all().end());
   record_.molfile = molfile_with_labels(mol_, record_.labels);
   for (int i = 1; i <= static_cast<int>(mol_.NumAtoms()); ++i)

@@ -9,6 +9,7 @@
 // also carry each coupling's derived results, CSV (one row per coupling) not.
 #pragma once
 
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -16,10 +17,15 @@
 
 namespace vicinal::library {
 
+// Couplings per batch by default: large enough that files of everyday size come whole.
+inline constexpr std::size_t kBatchCouplings = 50000;
+
 struct ImportOptions {
   // Store the good rows and return the bad ones as rejects instead of failing
   // on the first bad row.
   bool skip_bad = false;
+  // Couplings per batch handed to a sink (read_exchange_file); tests make it small.
+  std::size_t batch_couplings = kBatchCouplings;
 };
 
 struct Reject {
@@ -33,11 +39,23 @@ struct ImportResult {
   std::size_t couplings = 0;  // couplings read successfully
 };
 
-// vicinal::Error (file, line, column and reason) on the first bad row unless
-// options.skip_bad; then nothing is returned.
-ImportResult read_exchange_file(const std::string& path, const ImportOptions& options);
+// Entries handed over while a file is still being read, so that a large file
+// need not be held in memory whole. A compound or set may continue in a later
+// batch. Stereo-unassigned rows come in the last batch, with every other such
+// row of their set, as their identities are numbered within the set
+// (number_unassigned_groups).
+struct EntryBatch {
+  std::vector<Entry> entries;
+  std::size_t rows_read = 0, rows_total = 0;  // data rows of the file
+};
+using EntrySink = std::function<void(EntryBatch&&)>;
 
-ImportResult read_csv(const std::string& path, const ImportOptions& options);
+// vicinal::Error (file, line, column and reason) on the first bad row unless
+// options.skip_bad; then nothing is returned. With a sink, the entries go to
+// it (CSV in batches, JSON and SDF whole) and the result holds none.
+ImportResult read_exchange_file(const std::string& path, const ImportOptions& options, const EntrySink& sink = {});
+
+ImportResult read_csv(const std::string& path, const ImportOptions& options, const EntrySink& sink = {});
 ImportResult read_json(const std::string& path, const ImportOptions& options);
 ImportResult read_sdf(const std::string& path, const ImportOptions& options);
 

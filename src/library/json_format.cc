@@ -335,13 +335,25 @@ std::string exchange_format(const std::string& path) {
   throw Error(fmt::format("unknown file type '{}'", ext), {path}, "use .csv, .json or .sdf");
 }
 
-ImportResult read_exchange_file(const std::string& path, const ImportOptions& options) {
+ImportResult read_exchange_file(const std::string& path, const ImportOptions& options, const EntrySink& sink) {
+  auto number = [](std::vector<Entry>& entries) {
+    for (auto& entry : entries)
+      for (auto& set : entry.sets) number_unassigned_groups(set);
+  };
   const std::string format = exchange_format(path);
+  if (format == "csv" && sink)
+    return read_csv(path, options, [&](EntryBatch&& batch) {
+      number(batch.entries);
+      sink(std::move(batch));
+    });
   ImportResult result = format == "csv"    ? read_csv(path, options)
                         : format == "json" ? read_json(path, options)
                                            : read_sdf(path, options);
-  for (auto& entry : result.entries)
-    for (auto& set : entry.sets) number_unassigned_groups(set);
+  number(result.entries);
+  if (sink) {
+    sink({std::move(result.entries), result.couplings, result.couplings});
+    result.entries.clear();
+  }
   return result;
 }
 

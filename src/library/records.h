@@ -25,6 +25,9 @@ struct CompoundRecord {
   std::vector<std::pair<std::string, int>> labels;  // label -> atom, sorted by label
   std::vector<AtomRecord> atoms;
   std::vector<std::string> notes;
+  // Substructure-screen bits (library/fingerprint.h) when the importer worked
+  // them out; the store computes them when absent.
+  std::optional<std::vector<unsigned char>> fingerprint;
 };
 
 // Conditions and provenance of one measurement set; two sets of a compound are

@@ -4,6 +4,7 @@
 
 #include <filesystem>
 #include <map>
+#include <set>
 
 #include "core/atomic_file.h"
 #include "core/error.h"
@@ -94,213 +95,256 @@ int Library::insert_missing_fingerprints() {
 }
 
 StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress) {
-  StoreReport report;
-  // A large file's transaction outgrows SQLite's default 2 MB page cache, which
-  // then spills pages to the WAL mid-transaction and reads them back for every
-  // index update (a third of the time at 100,000 rows). The cache only holds
-  // pages the transaction touches; it is this connection's, not the file's.
-  db_->exec("PRAGMA cache_size = -262144");  // KiB: up to 256 MB
-  WriteTransaction tx(*db_);
-  Database& db = *db_;
-  Statement find_compound(db, "SELECT id, name FROM compounds WHERE inchikey = ?");
-  Statement insert_compound(db, "INSERT INTO compounds (name, smiles, inchi, inchikey, molfile) VALUES (?, ?, ?, ?, ?)");
-  Statement touch_compound(db, "UPDATE compounds SET updated_utc = strftime('%Y-%m-%dT%H:%M:%SZ', 'now') WHERE id = ?");
-  Statement insert_atom(db, "INSERT INTO atoms (compound_id, atom_index, element, canonical_rank) VALUES (?, ?, ?, ?)");
-  Statement insert_label(db, "INSERT INTO atom_labels (compound_id, label, atom_index) VALUES (?, ?, ?)");
-  Statement read_atoms(db, "SELECT atom_index, element, canonical_rank FROM atoms WHERE compound_id = ?");
-  Statement read_labels(db, "SELECT label, atom_index FROM atom_labels WHERE compound_id = ?");
-  Statement read_sets(db,
-                      "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
-                      "measured_on, source FROM measurement_sets WHERE compound_id = ?");
-  Statement insert_set(db,
-                       "INSERT INTO measurement_sets (compound_id, name, solvent, temperature_k, field_mhz, ph, "
-                       "instrument, method, measured_by, measured_on, source, imported_from) "
-                       "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)");
-  Statement read_couplings(db, "SELECT identity, j_hz, sigma_hz, sign_known, origin FROM couplings WHERE set_id = ?");
-  Statement insert_coupling(
-      db,
-      "INSERT INTO couplings (set_id, nucleus_a, nucleus_b, atoms_a, atoms_b, path, bond_count, isotope_a, "
-      "isotope_b, j_hz, sigma_hz, sign_known, assignment, ranks_a, ranks_b, identity, karplus_set, note, origin) "
-      "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)");
-  Statement find_note(db, "SELECT 1 FROM notes WHERE compound_id IS ? AND set_id IS ? AND text = ?");
-  Statement insert_note(db, "INSERT INTO notes (compound_id, set_id, text) VALUES (?, ?, ?)");
-  Statement insert_fingerprint(db, "INSERT INTO compound_fingerprints (compound_id, kind, bits) VALUES (?, ?, ?)");
-  DerivedRowWriter derived(db);
+  std::size_t total = 0;
+  for (const auto& e : entries)
+    for (const auto& s : e.sets) total += s.couplings.size();
+  progress.start("storing couplings", total);
+  StoreTransaction tx(*this, progress);
+  tx.add(entries);
+  auto report = tx.commit();
+  progress.finish();
+  return report;
+}
 
-  auto add_note = [&](std::optional<std::int64_t> compound, std::optional<std::int64_t> set, const std::string& text) {
+// What a store transaction keeps between batches: its statements, its report,
+// and which compounds and sets it created itself.
+struct StoreTransaction::Session {
+  Session(Database& db, Progress& progress)
+      : db(db),
+        progress(progress),
+        tx(db),
+        find_compound(db, "SELECT id, name FROM compounds WHERE inchikey = ?"),
+        insert_compound(db, "INSERT INTO compounds (name, smiles, inchi, inchikey, molfile) VALUES (?, ?, ?, ?, ?)"),
+        touch_compound(db, "UPDATE compounds SET updated_utc = strftime('%Y-%m-%dT%H:%M:%SZ', 'now') WHERE id = ?"),
+        insert_atom(db, "INSERT INTO atoms (compound_id, atom_index, element, canonical_rank) VALUES (?, ?, ?, ?)"),
+        insert_label(db, "INSERT INTO atom_labels (compound_id, label, atom_index) VALUES (?, ?, ?)"),
+        read_atoms(db, "SELECT atom_index, element, canonical_rank FROM atoms WHERE compound_id = ?"),
+        read_labels(db, "SELECT label, atom_index FROM atom_labels WHERE compound_id = ?"),
+        read_sets(db,
+                  "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
+                  "measured_on, source FROM measurement_sets WHERE compound_id = ?"),
+        insert_set(db,
+                   "INSERT INTO measurement_sets (compound_id, name, solvent, temperature_k, field_mhz, ph, "
+                   "instrument, method, measured_by, measured_on, source, imported_from) "
+                   "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"),
+        read_couplings(db, "SELECT identity, j_hz, sigma_hz, sign_known, origin FROM couplings WHERE set_id = ?"),
+        insert_coupling(db,
+                        "INSERT INTO couplings (set_id, nucleus_a, nucleus_b, atoms_a, atoms_b, path, bond_count, "
+                        "isotope_a, isotope_b, j_hz, sigma_hz, sign_known, assignment, ranks_a, ranks_b, identity, "
+                        "karplus_set, note, origin) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"),
+        find_note(db, "SELECT 1 FROM notes WHERE compound_id IS ? AND set_id IS ? AND text = ?"),
+        insert_note(db, "INSERT INTO notes (compound_id, set_id, text) VALUES (?, ?, ?)"),
+        insert_fingerprint(db, "INSERT INTO compound_fingerprints (compound_id, kind, bits) VALUES (?, ?, ?)"),
+        derived(db) {}
+
+  void add_note(std::optional<std::int64_t> compound, std::optional<std::int64_t> set, const std::string& text) {
     find_note.bind(1, compound).bind(2, set).bind(3, text);
     const bool present = find_note.step();
     find_note.reset();
     if (present) return;
     insert_note.bind(1, compound).bind(2, set).bind(3, text);
     insert_note.run();
-  };
+  }
 
-  std::size_t total = 0;
-  for (const auto& e : entries)
-    for (const auto& s : e.sets) total += s.couplings.size();
-  progress.start("storing couplings", total);
+  void add(const Entry& entry);
+
+  Database& db;
+  Progress& progress;
+  WriteTransaction tx;
+  Statement find_compound, insert_compound, touch_compound, insert_atom, insert_label, read_atoms, read_labels,
+      read_sets, insert_set, read_couplings, insert_coupling, find_note, insert_note, insert_fingerprint;
+  DerivedRowWriter derived;
+  StoreReport report;
   std::size_t done = 0;
+  // Compounds this transaction inserted, with the molfile they came with: a
+  // later batch of the same structure continues them rather than meeting them
+  // as known compounds.
+  std::map<std::int64_t, std::string> added_compounds;
+  // Compounds and sets already counted in the report, as added or as known.
+  std::set<std::int64_t> counted_compounds, counted_sets;
+};
 
-  for (const auto& entry : entries) {
-    const CompoundRecord& c = entry.compound;
-    std::int64_t compound_id = 0;
-    std::string stored_name = c.name;
-    // Incoming atom index -> stored atom index (identity unless the compound
-    // was stored before from a file with another numbering).
-    std::vector<int> to_stored(c.atoms.size() + 1);
-    for (std::size_t i = 0; i <= c.atoms.size(); ++i) to_stored[i] = static_cast<int>(i);
-    std::map<std::string, int> stored_labels;
-    std::map<int, std::string> stored_elements;
-    bool known = false;
+StoreTransaction::StoreTransaction(Library& library, Progress& progress) {
+  // A large file's transaction outgrows SQLite's default 2 MB page cache, which
+  // then spills pages to the WAL mid-transaction and reads them back for every
+  // index update (a third of the time at 100,000 rows). The cache only holds
+  // pages the transaction touches; it is this connection's, not the file's.
+  library.db().exec("PRAGMA cache_size = -262144");  // KiB: up to 256 MB
+  session_ = std::make_unique<Session>(library.db(), progress);
+}
 
-    find_compound.bind(1, c.inchikey);
-    if (find_compound.step()) {
-      known = true;
-      compound_id = find_compound.integer(0);
-      stored_name = find_compound.text(1);
+StoreTransaction::~StoreTransaction() = default;
+
+void StoreTransaction::add(const std::vector<Entry>& entries) {
+  for (const auto& entry : entries) session_->add(entry);
+}
+
+StoreReport StoreTransaction::commit() {
+  session_->tx.commit();
+  return std::move(session_->report);
+}
+
+void StoreTransaction::Session::add(const Entry& entry) {
+  const CompoundRecord& c = entry.compound;
+  std::int64_t compound_id = 0;
+  std::string stored_name = c.name;
+  // Incoming atom index -> stored atom index (identity unless the compound
+  // was stored before from a file with another numbering).
+  std::vector<int> to_stored(c.atoms.size() + 1);
+  for (std::size_t i = 0; i <= c.atoms.size(); ++i) to_stored[i] = static_cast<int>(i);
+  std::map<std::string, int> stored_labels;
+  std::map<int, std::string> stored_elements;
+  bool known = false;
+
+  find_compound.bind(1, c.inchikey);
+  if (find_compound.step()) {
+    known = true;
+    compound_id = find_compound.integer(0);
+    stored_name = find_compound.text(1);
+  }
+  find_compound.reset();
+  if (known) {
+    const auto it = added_compounds.find(compound_id);
+    known = it == added_compounds.end() || it->second != c.molfile;
+  }
+
+  if (compound_id == 0) {
+    insert_compound.bind(1, c.name).bind(2, c.smiles).bind(3, c.inchi).bind(4, c.inchikey).bind(5, c.molfile);
+    insert_compound.run();
+    compound_id = db.last_insert_id();
+    for (const auto& a : c.atoms) {
+      insert_atom.bind(1, compound_id).bind(2, a.index).bind(3, a.element).bind(4, static_cast<std::int64_t>(a.canonical_rank));
+      insert_atom.run();
     }
-    find_compound.reset();
+    for (const auto& [label, atom] : c.labels) {
+      insert_label.bind(1, compound_id).bind(2, label).bind(3, atom);
+      insert_label.run();
+    }
+    insert_fingerprint.bind(1, compound_id).bind(2, kFingerprintKind);
+    insert_fingerprint.bind_blob(3, c.fingerprint ? *c.fingerprint : compound_fingerprint(c.smiles));
+    insert_fingerprint.run();
+    added_compounds.emplace(compound_id, c.molfile);
+    counted_compounds.insert(compound_id);
+    ++report.compounds_added;
+  } else if (known) {
+    if (counted_compounds.insert(compound_id).second) ++report.compounds_known;
+    std::map<unsigned, int> by_rank;
+    read_atoms.bind(1, compound_id);
+    while (read_atoms.step()) {
+      const int index = static_cast<int>(read_atoms.integer(0));
+      stored_elements[index] = read_atoms.text(1);
+      by_rank[static_cast<unsigned>(read_atoms.integer(2))] = index;
+    }
+    read_atoms.reset();
+    read_labels.bind(1, compound_id);
+    while (read_labels.step()) stored_labels[read_labels.text(0)] = static_cast<int>(read_labels.integer(1));
+    read_labels.reset();
+    for (const auto& a : c.atoms) {
+      auto it = by_rank.find(a.canonical_rank);
+      if (it == by_rank.end() || stored_elements[it->second] != a.element || by_rank.size() != c.atoms.size())
+        throw Error(fmt::format("compound '{}' has the InChIKey {} of the stored compound '{}', but its atoms "
+                                "do not correspond (a tautomer or a different hydrogen count?)",
+                                c.name, c.inchikey, stored_name),
+                    {}, "store it under the structure already in the library");
+      to_stored[a.index] = it->second;
+    }
+    touch_compound.bind(1, compound_id);
+    touch_compound.run();
+  }
+  for (const auto& note : c.notes) add_note(compound_id, std::nullopt, note);
 
-    if (!known) {
-      insert_compound.bind(1, c.name).bind(2, c.smiles).bind(3, c.inchi).bind(4, c.inchikey).bind(5, c.molfile);
-      insert_compound.run();
-      compound_id = db.last_insert_id();
-      for (const auto& a : c.atoms) {
-        insert_atom.bind(1, compound_id).bind(2, a.index).bind(3, a.element).bind(4, static_cast<std::int64_t>(a.canonical_rank));
-        insert_atom.run();
-        stored_elements[a.index] = a.element;
-      }
-      for (const auto& [label, atom] : c.labels) {
-        insert_label.bind(1, compound_id).bind(2, label).bind(3, atom);
-        insert_label.run();
-        stored_labels[label] = atom;
-      }
-      insert_fingerprint.bind(1, compound_id).bind(2, kFingerprintKind).bind_blob(3, compound_fingerprint(c.smiles));
-      insert_fingerprint.run();
-      ++report.compounds_added;
+  // Sets of this compound already stored, with their couplings by identity.
+  std::map<std::string, std::int64_t> stored_sets;
+  read_sets.bind(1, compound_id);
+  while (read_sets.step()) {
+    Conditions k;
+    k.name = read_sets.text(1);
+    k.solvent = read_sets.text(2);
+    k.temperature_k = read_sets.optional_real(3);
+    k.field_mhz = read_sets.optional_real(4);
+    k.ph = read_sets.optional_real(5);
+    k.instrument = read_sets.text(6);
+    k.method = read_sets.text(7);
+    k.measured_by = read_sets.text(8);
+    k.measured_on = read_sets.text(9);
+    k.source = read_sets.text(10);
+    stored_sets.emplace(conditions_key(k), read_sets.integer(0));
+  }
+  read_sets.reset();
+
+  for (const auto& set : entry.sets) {
+    std::int64_t set_id = 0;
+    std::multimap<std::string, StoredCoupling> present;
+    const std::string set_key = conditions_key(set.conditions);
+    if (auto it = stored_sets.find(set_key); it != stored_sets.end()) set_id = it->second;
+    if (set_id != 0) {
+      if (counted_sets.insert(set_id).second) ++report.sets_known;
+      read_couplings.bind(1, set_id);
+      while (read_couplings.step())
+        present.emplace(read_couplings.text(0),
+                        StoredCoupling{read_couplings.real(1), read_couplings.optional_real(2),
+                                       read_couplings.integer(3) != 0, read_couplings.text(4)});
+      read_couplings.reset();
     } else {
-      ++report.compounds_known;
-      std::map<unsigned, int> by_rank;
-      read_atoms.bind(1, compound_id);
-      while (read_atoms.step()) {
-        const int index = static_cast<int>(read_atoms.integer(0));
-        stored_elements[index] = read_atoms.text(1);
-        by_rank[static_cast<unsigned>(read_atoms.integer(2))] = index;
-      }
-      read_atoms.reset();
-      read_labels.bind(1, compound_id);
-      while (read_labels.step()) stored_labels[read_labels.text(0)] = static_cast<int>(read_labels.integer(1));
-      read_labels.reset();
-      for (const auto& a : c.atoms) {
-        auto it = by_rank.find(a.canonical_rank);
-        if (it == by_rank.end() || stored_elements[it->second] != a.element || by_rank.size() != c.atoms.size())
-          throw Error(fmt::format("compound '{}' has the InChIKey {} of the stored compound '{}', but its atoms "
-                                  "do not correspond (a tautomer or a different hydrogen count?)",
-                                  c.name, c.inchikey, stored_name),
-                      {}, "store it under the structure already in the library");
-        to_stored[a.index] = it->second;
-      }
-      touch_compound.bind(1, compound_id);
-      touch_compound.run();
+      const Conditions& k = set.conditions;
+      insert_set.bind(1, compound_id).bind(2, k.name).bind(3, k.solvent).bind(4, k.temperature_k);
+      insert_set.bind(5, k.field_mhz).bind(6, k.ph).bind(7, k.instrument).bind(8, k.method);
+      insert_set.bind(9, k.measured_by).bind(10, k.measured_on).bind(11, k.source).bind(12, set.imported_from);
+      insert_set.run();
+      set_id = db.last_insert_id();
+      stored_sets.emplace(set_key, set_id);
+      counted_sets.insert(set_id);
+      ++report.sets_added;
     }
-    for (const auto& note : c.notes) add_note(compound_id, std::nullopt, note);
+    for (const auto& note : set.notes) add_note(std::nullopt, set_id, note);
 
-    // Sets of this compound already stored, with their couplings by identity.
-    std::map<std::string, std::int64_t> stored_sets;
-    read_sets.bind(1, compound_id);
-    while (read_sets.step()) {
-      Conditions k;
-      k.name = read_sets.text(1);
-      k.solvent = read_sets.text(2);
-      k.temperature_k = read_sets.optional_real(3);
-      k.field_mhz = read_sets.optional_real(4);
-      k.ph = read_sets.optional_real(5);
-      k.instrument = read_sets.text(6);
-      k.method = read_sets.text(7);
-      k.measured_by = read_sets.text(8);
-      k.measured_on = read_sets.text(9);
-      k.source = read_sets.text(10);
-      stored_sets.emplace(conditions_key(k), read_sets.integer(0));
-    }
-    read_sets.reset();
-
-    for (const auto& set : entry.sets) {
-      std::int64_t set_id = 0;
-      std::multimap<std::string, StoredCoupling> present;
-      const std::string set_key = conditions_key(set.conditions);
-      if (auto it = stored_sets.find(set_key); it != stored_sets.end()) set_id = it->second;
-      if (set_id != 0) {
-        ++report.sets_known;
-        read_couplings.bind(1, set_id);
-        while (read_couplings.step())
-          present.emplace(read_couplings.text(0),
-                          StoredCoupling{read_couplings.real(1), read_couplings.optional_real(2),
-                                         read_couplings.integer(3) != 0, read_couplings.text(4)});
-        read_couplings.reset();
-      } else {
-        const Conditions& k = set.conditions;
-        insert_set.bind(1, compound_id).bind(2, k.name).bind(3, k.solvent).bind(4, k.temperature_k);
-        insert_set.bind(5, k.field_mhz).bind(6, k.ph).bind(7, k.instrument).bind(8, k.method);
-        insert_set.bind(9, k.measured_by).bind(10, k.measured_on).bind(11, k.source).bind(12, set.imported_from);
-        insert_set.run();
-        set_id = db.last_insert_id();
-        stored_sets.emplace(set_key, set_id);
-        ++report.sets_added;
+    for (const auto& in : set.couplings) {
+      progress.advance(++done);
+      const auto [first, last] = present.equal_range(in.identity);
+      bool duplicate = false;
+      for (auto it = first; it != last; ++it)
+        duplicate |= it->second.j_hz == in.j_hz && it->second.sigma_hz == in.sigma_hz &&
+                     it->second.sign_known == in.sign_known;
+      if (duplicate) {
+        ++report.couplings_duplicate;
+        derived.add_to_duplicate(set_id, in);
+        continue;
       }
-      for (const auto& note : set.notes) add_note(std::nullopt, set_id, note);
-
-      for (const auto& in : set.couplings) {
-        progress.advance(++done);
-        const auto [first, last] = present.equal_range(in.identity);
-        bool duplicate = false;
-        for (auto it = first; it != last; ++it)
-          duplicate |= it->second.j_hz == in.j_hz && it->second.sigma_hz == in.sigma_hz &&
-                       it->second.sign_known == in.sign_known;
-        if (duplicate) {
-          ++report.couplings_duplicate;
-          derived.add_to_duplicate(set_id, in);
-          continue;
-        }
-        if (first != last)
-          report.conflicts.push_back({stored_name, c.inchikey, set.conditions.name,
-                                      in.nucleus_a + "," + in.nucleus_b, first->second.j_hz, first->second.sigma_hz,
-                                      first->second.origin, in.j_hz, in.sigma_hz, in.origin});
-        auto map_atoms = [&](const std::vector<int>& atoms) {
-          std::vector<int> out;
-          for (int a : atoms) out.push_back(to_stored.at(static_cast<std::size_t>(a)));
-          return out;
-        };
-        const auto atoms_a = map_atoms(in.atoms_a), atoms_b = map_atoms(in.atoms_b);
-        insert_coupling.bind(1, set_id)
-            .bind(2, known ? restate_nucleus(in.nucleus_a, atoms_a, stored_labels, stored_elements) : in.nucleus_a)
-            .bind(3, known ? restate_nucleus(in.nucleus_b, atoms_b, stored_labels, stored_elements) : in.nucleus_b)
-            .bind(4, join_atoms(atoms_a, '|'))
-            .bind(5, join_atoms(atoms_b, '|'))
-            .bind(6, join_atoms(map_atoms(in.path), '-'))
-            .bind(7, in.bond_count)
-            .bind(8, in.isotope_a)
-            .bind(9, in.isotope_b)
-            .bind(10, in.j_hz)
-            .bind(11, in.sigma_hz)
-            .bind(12, in.sign_known ? 1 : 0)
-            .bind(13, in.stereo_unassigned ? "stereo-unassigned" : "assigned")
-            .bind(14, in.ranks_a)
-            .bind(15, in.ranks_b)
-            .bind(16, in.identity)
-            .bind(17, in.karplus_set)
-            .bind(18, in.note)
-            .bind(19, in.origin);
-        insert_coupling.run();
-        derived.add(db.last_insert_id(), in.derived);
-        present.emplace(in.identity, StoredCoupling{in.j_hz, in.sigma_hz, in.sign_known, in.origin});
-        ++report.couplings_added;
-      }
+      if (first != last)
+        report.conflicts.push_back({stored_name, c.inchikey, set.conditions.name, in.nucleus_a + "," + in.nucleus_b,
+                                    first->second.j_hz, first->second.sigma_hz, first->second.origin, in.j_hz,
+                                    in.sigma_hz, in.origin});
+      auto map_atoms = [&](const std::vector<int>& atoms) {
+        std::vector<int> out;
+        for (int a : atoms) out.push_back(to_stored.at(static_cast<std::size_t>(a)));
+        return out;
+      };
+      const auto atoms_a = map_atoms(in.atoms_a), atoms_b = map_atoms(in.atoms_b);
+      insert_coupling.bind(1, set_id)
+          .bind(2, known ? restate_nucleus(in.nucleus_a, atoms_a, stored_labels, stored_elements) : in.nucleus_a)
+          .bind(3, known ? restate_nucleus(in.nucleus_b, atoms_b, stored_labels, stored_elements) : in.nucleus_b)
+          .bind(4, join_atoms(atoms_a, '|'))
+          .bind(5, join_atoms(atoms_b, '|'))
+          .bind(6, join_atoms(map_atoms(in.path), '-'))
+          .bind(7, in.bond_count)
+          .bind(8, in.isotope_a)
+          .bind(9, in.isotope_b)
+          .bind(10, in.j_hz)
+          .bind(11, in.sigma_hz)
+          .bind(12, in.sign_known ? 1 : 0)
+          .bind(13, in.stereo_unassigned ? "stereo-unassigned" : "assigned")
+          .bind(14, in.ranks_a)
+          .bind(15, in.ranks_b)
+          .bind(16, in.identity)
+          .bind(17, in.karplus_set)
+          .bind(18, in.note)
+          .bind(19, in.origin);
+      insert_coupling.run();
+      derived.add(db.last_insert_id(), in.derived);
+      present.emplace(in.identity, StoredCoupling{in.j_hz, in.sigma_hz, in.sign_known, in.origin});
+      ++report.couplings_added;
     }
   }
-  tx.commit();
-  progress.finish();
-  return report;
 }
 
 std::vector<Entry> read_other_library(const std::string& path) {

@@ -58,10 +58,7 @@ class Library {
   const std::string& path() const { return path_; }
   const UpgradeReport& upgrade_report() const { return upgrade_; }
 
-  // Stores entries in one transaction. Compounds are matched by InChIKey (the
-  // incoming atom numbering is mapped onto the stored one through canonical
-  // ranks), sets by their full conditions, couplings by identity key: equal
-  // values are duplicates, different ones are kept side by side as conflicts.
+  // Stores entries in one transaction (StoreTransaction, one batch).
   StoreReport store(const std::vector<Entry>& entries, Progress& progress);
 
   // Entries of the given compounds (all when empty), in id order.
@@ -80,6 +77,31 @@ class Library {
   std::unique_ptr<Database> db_;
   std::string path_;
   UpgradeReport upgrade_;
+};
+
+// One write transaction that takes entries in batches, so that a large file
+// is stored while it is still being read. Compounds are matched by InChIKey
+// (the incoming atom numbering is mapped onto the stored one through canonical
+// ranks), sets by their full conditions, couplings by identity key: equal
+// values are duplicates, different ones are kept side by side as conflicts.
+// A compound or set may continue in a later batch; it is counted once, as
+// added. Nothing is visible to others until commit(); destroying an
+// uncommitted transaction rolls it all back.
+class StoreTransaction {
+ public:
+  // progress.advance gets the count of couplings handled so far; the caller
+  // starts and finishes it.
+  StoreTransaction(Library& library, Progress& progress);
+  ~StoreTransaction();
+  StoreTransaction(const StoreTransaction&) = delete;
+  StoreTransaction& operator=(const StoreTransaction&) = delete;
+
+  void add(const std::vector<Entry>& entries);
+  StoreReport commit();
+
+ private:
+  struct Session;
+  std::unique_ptr<Session> session_;
 };
 
 }  // namespace vicinal::library

@@ -8,7 +8,7 @@ L=(--library "$WORK/lib.sqlite")
 count() { /usr/bin/python3 -c "import sqlite3,sys; print(sqlite3.connect(sys.argv[1]).execute(sys.argv[2]).fetchone()[0])" "$@"; }
 
 run 0 "${L[@]}" library init
-contains out "schema version 3"
+contains out "schema version 4"
 run 0 "${L[@]}" library init          # again: nothing changes
 contains out "already present"
 
@@ -89,6 +89,9 @@ run 2 "${L[@]}" library import badc.csv; one_line_error; contains err "unknown c
 printf 'compound,smiles,nuclei,j_hz\nbutane,CCCC,"5,8",1500\n' > badj.csv
 run 2 "${L[@]}" library import badj.csv; one_line_error; contains err "1000"
 [[ $(count lib.sqlite "select count(*) from couplings") == "$before" ]] || fail "a refused file left rows behind"
+# A refused file does not leave behind the library the import would have created.
+run 2 --library "$WORK/never.sqlite" library import badj.csv; one_line_error
+[[ ! -e never.sqlite && ! -e never.sqlite-wal && ! -e never.sqlite-shm ]] || fail "a refused file left a new library"
 
 # --skip-bad: good rows stored, bad ones in the reject file with reasons.
 cat > mixed.csv <<'CSV'
@@ -184,10 +187,10 @@ run 2 "${L[@]}" library merge "$WORK/nonexistent.sqlite"; one_line_error
 # Upgrade from schema version 1: a backup copy beside it, then the current version.
 cp "$DATA/v1.sqlite" old.sqlite
 run 0 --library "$WORK/old.sqlite" library check
-contains err "upgraded the library from schema version 1 to 3"
+contains err "upgraded the library from schema version 1 to 4"
 [[ -f old.v1.backup.sqlite ]] || fail "no backup before the upgrade"
 [[ $(count old.v1.backup.sqlite "pragma user_version") == 1 ]] || fail "backup is not the old version"
-[[ $(count old.sqlite "pragma user_version") == 3 ]] || fail "not upgraded"
+[[ $(count old.sqlite "pragma user_version") == 4 ]] || fail "not upgraded"
 run 0 --library "$WORK/old.sqlite" --json library find --smarts 'C=O'
 [[ $(json_get 'd["matches"]') == 1 ]] || fail "substructure search after upgrade"
 [[ $(count old.sqlite "select count(*) from compound_fingerprints") == 2 ]] || fail "fingerprints not filled"
@@ -195,7 +198,7 @@ run 0 --library "$WORK/old.sqlite" --json library find --smarts 'C=O'
 # chain's couplings by atom numbering, so a renumbered file added them again.
 cp "$DATA/v2-chain.sqlite" chain.sqlite
 run 0 --library "$WORK/chain.sqlite" library check
-contains err "upgraded the library from schema version 2 to 3"
+contains err "upgraded the library from schema version 2 to 4"
 cp "$DATA"/chain-renumbered.* .
 run 0 --library "$WORK/chain.sqlite" --json library import chain-renumbered.csv
 [[ $(json_get 'd["couplings_added"]') == 0 ]] || fail "renumbered chain couplings stored again after the upgrade"
