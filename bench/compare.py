@@ -304,13 +304,14 @@ def main():
            "`library import` into a fresh library (created by `library init`, not timed): reads and checks every "
            "row, computes each compound's InChI, InChIKey, canonical ranks, symmetry and fingerprint once, "
            "each distinct coupling's identity key once, and stores everything in one transaction with its "
-           "indexes. Ceiling: SQLite's own bulk insert of the same CSV rows into one plain table without indexes "
+           "indexes; with two threads (the default on this machine) one reads the file and does the Open Babel "
+           "work while the other stores what has been read. Ceiling: SQLite's own bulk insert of the same CSV rows into one plain table without indexes "
            "in one transaction: the sqlite3 shell's `.import --csv` (C, prepared statement) and Python "
            "csv + executemany.", "",
-           "| rows | vicinal | sqlite3 .import | Python executemany | vicinal rows/s | .import rows/s | "
-           "vicinal / .import | peak RSS vicinal |",
-           "|---|---|---|---|---|---|---|---|"]
-    scaling["library rows"] = {"vicinal import": [], "sqlite3 .import": []}
+           "| rows | vicinal, 1 thread | vicinal, 2 threads | sqlite3 .import | Python executemany | "
+           "vicinal rows/s (1 / 2 threads) | .import rows/s | vicinal 2 threads / .import | peak RSS vicinal |",
+           "|---|---|---|---|---|---|---|---|---|"]
+    scaling["library rows"] = {"vicinal import, 1 thread": [], "vicinal import, 2 threads": [], "sqlite3 .import": []}
     lib = os.path.join(work, "lib.sqlite")
     ref = os.path.join(work, "ref.sqlite")
     big_lib = os.path.join(work, "lib-big.sqlite")
@@ -321,10 +322,10 @@ def main():
                 if os.path.exists(p + suffix):
                     os.remove(p + suffix)
 
-    def import_once(csv_path, target):
+    def import_once(csv_path, target, threads=1):
         remove(target)
         run(V + ["--library", target, "library", "init"])
-        return run(one_omp + V + ["--library", target, "library", "import", csv_path])
+        return run(one_omp + V + ["--threads", str(threads), "--library", target, "library", "import", csv_path])
 
     def ceiling(cmd):
         remove(ref)
@@ -334,34 +335,56 @@ def main():
     import_rate = ratio = None
     for n in lib_sizes:
         csv_path = make_inputs.write_library_bulk(work, compounds, n)
-        vt, ct, pt, vr = [], [], [], []
+        vt, v2t, ct, pt, vr = [], [], [], [], []
         for _ in range(2 if n <= 100_000 else 1):
             target = big_lib if n == lib_sizes[-1] else lib
-            w, rss, _ = import_once(csv_path, target)
+            w, rss, _ = import_once(csv_path, lib)
             vt.append(w)
+            vr.append(rss)
+            w, rss, _ = import_once(csv_path, target, threads=2)
+            v2t.append(w)
             vr.append(rss)
             ct.append(ceiling(["sqlite3", ref, ".import --csv " + csv_path + " couplings"]))
             pt.append(ceiling([PY, os.path.join(work, "sqlite_insert.py"), csv_path, ref]))
-        v, c, p = statistics.median(vt), statistics.median(ct), statistics.median(pt)
-        md.append(f"| {n:,} | {fmt_s(v)} | {fmt_s(c)} | {fmt_s(p)} | {n / v:,.0f} | {n / c:,.0f} | {v / c:.1f} | "
-                  f"{max(vr):.0f} MB |")
-        scaling["library rows"]["vicinal import"].append((n, v))
+        v, v2 = statistics.median(vt), statistics.median(v2t)
+        c, p = statistics.median(ct), statistics.median(pt)
+        md.append(f"| {n:,} | {fmt_s(v)} | {fmt_s(v2)} | {fmt_s(c)} | {fmt_s(p)} | {n / v:,.0f} / {n / v2:,.0f} | "
+                  f"{n / c:,.0f} | {v2 / c:.1f} | {max(vr):.0f} MB |")
+        scaling["library rows"]["vicinal import, 1 thread"].append((n, v))
+        scaling["library rows"]["vicinal import, 2 threads"].append((n, v2))
         scaling["library rows"]["sqlite3 .import"].append((n, c))
-        import_rate, ratio = n / v, v / c
+        import_rate, ratio = n / v2, v2 / c
     # The same number of rows over 10 compounds: the per-row part of the work.
     few = make_inputs.write_library_bulk(work, 10, 100_000)
     w_few = statistics.median([import_once(few, lib)[0] for _ in range(2)])
-    md += ["", f"100,000 rows over 10 compounds (the per-row work without most of the per-compound work): "
+    md += ["", f"100,000 rows over 10 compounds, 1 thread (the per-row work without most of the per-compound work): "
            f"{fmt_s(w_few)}, {100_000 / w_few:,.0f} rows/s.", ""]
     remove(lib)
     targets.append(("library import >= 100,000 couplings/s",
-                    f"{import_rate:,.0f} couplings/s at {lib_sizes[-1]:,} rows over {compounds} compounds "
-                    f"({ratio:.1f}x the time of sqlite3 .import)", import_rate >= 100000))
+                    f"{import_rate:,.0f} couplings/s with 2 threads at {lib_sizes[-1]:,} rows over {compounds} "
+                    f"compounds ({ratio:.1f}x the time of sqlite3 .import)", import_rate >= 100000))
+
+    # A compound as a group measures one: (R)-4-chlorobutan-2-ol, not among
+    # the bulk compounds, eight distinct vicinal H-H pairs in three solvents.
+    # Atoms as Open Babel numbers the SMILES with hydrogens added: C1 C2 O3 C4
+    # C5 Cl6, then H7-H9 on C1, H10 on C2, H11 on O3, H12-H13 on C4, H14-H15 on C5.
+    typical = "chlorobutanol (typical)"
+    typical_csv = os.path.join(work, "typical.csv")
+    with open(typical_csv, "w") as f:
+        f.write("compound,smiles,solvent,nuclei,j_hz\n")
+        pairs = [(7, 10), (10, 11), (10, 12), (10, 13), (12, 14), (12, 15), (13, 14), (13, 15)]
+        structure = "C[C@@H](O)CCCl"  # on the first row only
+        for solvent in ("CDCl3", "D2O", "DMSO-d6"):
+            for k, (a, b) in enumerate(pairs):
+                f.write(f"{typical},{structure},{solvent},\"H{a},H{b}\",{6 + k / 10:.1f}\n")
+                structure = ""
+    run(V + ["--library", big_lib, "library", "import", typical_csv])
 
     # Lookup and substructure search in the big library.
     print("library: lookup and substructure search", flush=True)
     some = "bulk 250 " + make_inputs.bulk_compounds(compounds)[249]
-    lookup_env = {"VICINAL_BENCH_LIBRARY": big_lib, "VICINAL_BENCH_COMPOUND": some}
+    lookup_env = {"VICINAL_BENCH_LIBRARY": big_lib, "VICINAL_BENCH_COMPOUND": some,
+                  "VICINAL_BENCH_TYPICAL_COMPOUND": typical}
     smarts = "BrCCCCCCCCCCCCCCCCCCCC"
     sdfs = [os.path.join(work, "structures", f"c{i + 1:03d}.sdf") for i in range(compounds)]
     with open(os.path.join(work, "sdf-list.txt"), "w") as f:
@@ -415,11 +438,14 @@ def main():
     targets.append(("simulation of 12 coupled spins < 2 s (one thread)",
                     f"wall {fmt_s(twelve[0][0])}, CPU {fmt_s(twelve[0][1])}" if twelve else "not measured",
                     bool(twelve) and twelve[0][1] < 2))
-    lookup = [b for b in gb["library_bench"] if b["name"] == "lookup_compound" and not b.get("error_occurred")]
-    targets.append((f"lookup of one compound's couplings < 1 ms at {args.library_rows:,} couplings",
-                    f"{fmt_s(gb_seconds(lookup[0]))} for {lookup[0].get('couplings', 0):,.0f} couplings "
-                    f"(in process; whole `library show --json` process {fmt_s(show.median)})" if lookup
-                    else "not measured", bool(lookup) and gb_seconds(lookup[0]) < 1e-3))
+    for name, what in (("lookup_typical_compound", "a compound with"),
+                       ("lookup_compound", "a bulk compound with")):
+        lookup = [b for b in gb["library_bench"] if b["name"] == name and not b.get("error_occurred")]
+        targets.append((f"lookup of one compound's couplings < 1 ms at {args.library_rows:,} couplings",
+                        f"{fmt_s(gb_seconds(lookup[0]))} for {what} {lookup[0].get('couplings', 0):,.0f} couplings "
+                        "(in process)" + (f"; whole `library show --json` process {fmt_s(show.median)}"
+                                          if name == "lookup_compound" else "") if lookup
+                        else "not measured", bool(lookup) and gb_seconds(lookup[0]) < 1e-3))
     fit_in = [gb_seconds(b) for b in gb["fit_bench"] if b["name"] == "exact_fit/1000/40"]
     scipy_inner = statistics.median(main_fit["SciPy nnls (augmented)"].inner)
     v_whole = main_fit["vicinal fit --matrix --draws 0"].median

@@ -26,7 +26,7 @@ std::unique_ptr<library::Library> open_library(const Globals& g, bool create) {
   if (create && !std::filesystem::exists(path)) {
     lib = library::Library::create(path);
   } else {
-    lib = std::make_unique<library::Library>(path);
+    lib = std::make_unique<library::Library>(path, g.progress().get());
   }
   const auto& up = lib->upgrade_report();
   if (up.from_version > 0 && up.from_version != up.to_version)

@@ -170,13 +170,13 @@ void check_derived(const DerivedRecord& row, const std::string& source, const st
 
 DerivedRowReader::DerivedRowReader(Database& db)
     : read_(db,
-            "SELECT d.coupling_id, d.karplus_set, d.from_deg, d.to_deg, d.created_utc FROM derived_results d "
-            "JOIN couplings k ON k.id = d.coupling_id WHERE k.set_id = ? "
-            "ORDER BY d.coupling_id, d.karplus_set, d.from_deg, d.to_deg, d.id") {}
+            "SELECT d.coupling_id, d.karplus_set, d.from_deg, d.to_deg, d.created_utc FROM measurement_sets s "
+            "JOIN couplings k ON k.set_id = s.id JOIN derived_results d ON d.coupling_id = k.id "
+            "WHERE s.compound_id = ? ORDER BY d.coupling_id, d.karplus_set, d.from_deg, d.to_deg, d.id") {}
 
-std::map<std::int64_t, std::vector<DerivedRecord>> DerivedRowReader::of_set(std::int64_t set_id) {
+std::map<std::int64_t, std::vector<DerivedRecord>> DerivedRowReader::of_compound(std::int64_t compound_id) {
   std::map<std::int64_t, std::vector<DerivedRecord>> out;
-  read_.bind(1, set_id);
+  read_.bind(1, compound_id);
   while (read_.step())
     out[read_.integer(0)].push_back({read_.text(1), read_.real(2), read_.real(3), read_.text(4)});
   read_.reset();

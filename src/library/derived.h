@@ -57,12 +57,12 @@ std::vector<DerivedResult> by_karplus_set(const std::vector<DerivedRecord>& rows
 // created_utc empty or "YYYY-MM-DDTHH:MM:SSZ".
 void check_derived(const DerivedRecord& row, const std::string& source, const std::string& context);
 
-// Reads the derived rows of a measurement set's couplings.
+// Reads the derived rows of a compound's couplings.
 class DerivedRowReader {
  public:
   explicit DerivedRowReader(Database& db);
   // By coupling id; each list ordered by karplus_set, from_deg, to_deg.
-  std::map<std::int64_t, std::vector<DerivedRecord>> of_set(std::int64_t set_id);
+  std::map<std::int64_t, std::vector<DerivedRecord>> of_compound(std::int64_t compound_id);
 
  private:
   Statement read_;

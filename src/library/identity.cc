@@ -51,17 +51,19 @@ std::string inchikey_of(const OpenBabel::OBMol& mol) {
   return write_as(copy, "inchikey");
 }
 
-CompoundIdentity::CompoundIdentity(const OpenBabel::OBMol& mol, const std::string& source)
+CompoundIdentity::CompoundIdentity(const OpenBabel::OBMol& mol, const std::string& source, Names names)
     : mol_(mol), source_(source) {
   structure::LogCapture quiet;
-  inchi_ = write_as(mol_, "inchi");
-  inchikey_ = write_as(mol_, "inchikey");
-  if (inchi_.rfind("InChI=", 0) != 0 || inchikey_.size() != 27) {
-    const auto errors = quiet.errors();
-    throw Error(fmt::format("Open Babel could not compute an InChI{}", errors.empty() ? "" : ": " + errors.front()),
-                {source}, "check the structure (valences, charges)");
+  if (names == Names::All) {
+    inchi_ = write_as(mol_, "inchi");
+    inchikey_ = write_as(mol_, "inchikey");
+    if (inchi_.rfind("InChI=", 0) != 0 || inchikey_.size() != 27) {
+      const auto errors = quiet.errors();
+      throw Error(fmt::format("Open Babel could not compute an InChI{}", errors.empty() ? "" : ": " + errors.front()),
+                  {source}, "check the structure (valences, charges)");
+    }
+    smiles_ = write_as(mol_, "can", "n");
   }
-  smiles_ = write_as(mol_, "can", "n");
 
   const unsigned n = mol_.NumAtoms();
   OpenBabel::OBGraphSym symmetry(&mol_);

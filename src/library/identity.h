@@ -27,10 +27,16 @@ namespace vicinal::library {
 
 class CompoundIdentity {
  public:
+  // What to work out besides the ranks and coupling keys.
+  enum class Names {
+    All,       // InChI, InChIKey and canonical SMILES too
+    KeysOnly,  // not them (a stored compound has them): its keys cost half as much
+  };
   // vicinal::Error when Open Babel cannot produce an InChI for the molecule.
   // `source` names the structure in messages.
-  CompoundIdentity(const OpenBabel::OBMol& mol, const std::string& source);
+  CompoundIdentity(const OpenBabel::OBMol& mol, const std::string& source, Names names = Names::All);
 
+  // Empty with Names::KeysOnly.
   const std::string& inchi() const { return inchi_; }
   const std::string& inchikey() const { return inchikey_; }
   const std::string& smiles() const { return smiles_; }  // canonical isomeric SMILES

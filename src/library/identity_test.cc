@@ -122,6 +122,23 @@ TEST(CouplingIdentity, LongChainKeysDoNotDependOnNumbering) {
   }
 }
 
+TEST(CouplingIdentity, KeysOnlyGivesTheSameRanksAndKeys) {
+  // Upgrades recompute stored keys without the InChI and SMILES; writing
+  // those could leave perceived data on the molecule that the keys then use,
+  // so both ways must agree on every pair.
+  for (const char* smiles : {"C[C@H](Cl)CC", "C/C=C/[C@@H](O)C", "CO[C@@H]1O[C@H](CO)[C@@H](O)[C@H](O)[C@H]1O",
+                             "CC(C)(C)C", "O[C@@H](C)[C@H](C)O"}) {
+    auto mol = structure::molecule_from_smiles(smiles, true);
+    CompoundIdentity all(mol, smiles), keys(mol, smiles, CompoundIdentity::Names::KeysOnly);
+    EXPECT_TRUE(keys.inchikey().empty());
+    for (int a = 1; a <= all.atom_count(); ++a) {
+      EXPECT_EQ(all.rank(a), keys.rank(a)) << smiles << " atom " << a;
+      for (int b = a + 1; b <= all.atom_count(); ++b)
+        EXPECT_EQ(all.coupling_key({a}, {b}), keys.coupling_key({a}, {b})) << smiles << " atoms " << a << "," << b;
+    }
+  }
+}
+
 TEST(CouplingIdentity, RanksAreAPermutation) {
   auto mol = structure::molecule_from_smiles("OC(=O)[C@@H](N)C", true);
   CompoundIdentity id(mol, "alanine");

@@ -25,7 +25,7 @@ std::string rekeyed(CompoundIdentity& identity, const std::vector<int>& a, const
 // longer reads means a damaged library: say so, not how to write an import.
 CompoundIdentity stored_identity(const std::string& library, const std::string& name, const std::string& molfile) {
   try {
-    return CompoundIdentity(molecule_from_molfile(molfile, library), name);
+    return CompoundIdentity(molecule_from_molfile(molfile, library), name, CompoundIdentity::Names::KeysOnly);
   } catch (const Error& e) {
     throw Error(fmt::format("compound '{}': cannot recompute coupling keys: {}", name, e.what_happened()), {library},
                 "the library holding it is damaged; nothing was changed");
@@ -34,7 +34,7 @@ CompoundIdentity stored_identity(const std::string& library, const std::string& 
 
 }  // namespace
 
-int rekey_stored_couplings(Database& db) {
+int rekey_stored_couplings(Database& db, Progress& progress) {
   Statement compounds(db, "SELECT id, name, molfile FROM compounds ORDER BY id");
   Statement couplings(db,
                       "SELECT k.id, k.atoms_a, k.atoms_b, k.identity FROM couplings k "
@@ -48,7 +48,10 @@ int rekey_stored_couplings(Database& db) {
   while (compounds.step()) todo.push_back({compounds.integer(0), compounds.text(1), compounds.text(2)});
 
   int changed = 0;
+  progress.start("recomputing coupling keys", todo.size());
+  std::size_t done = 0;
   for (const auto& compound : todo) {
+    progress.advance(done++);
     CompoundIdentity identity = stored_identity(db.path(), compound.name, compound.molfile);
     std::vector<std::pair<std::int64_t, std::string>> updates;
     couplings.bind(1, compound.id);
@@ -64,6 +67,7 @@ int rekey_stored_couplings(Database& db) {
     }
     changed += static_cast<int>(updates.size());
   }
+  progress.finish();
   return changed;
 }
 

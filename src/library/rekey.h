@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "core/progress.h"
 #include "library/records.h"
 #include "library/sqlite.h"
 
@@ -18,8 +19,9 @@ constexpr int kCurrentKeysVersion = 3;
 // Rewrites the identity of every stored coupling whose key is computed
 // differently now. Runs inside the caller's write transaction. Returns the
 // number of couplings whose key changed. vicinal::Error, naming the library
-// and the compound, when a stored structure no longer reads.
-int rekey_stored_couplings(Database& db);
+// and the compound, when a stored structure no longer reads. `progress`
+// counts compounds.
+int rekey_stored_couplings(Database& db, Progress& progress);
 
 // The same for entries read from the older library file `library` (before
 // merging them).

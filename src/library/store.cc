@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <map>
 #include <set>
@@ -53,23 +54,24 @@ struct StoredCoupling {
 }  // namespace
 
 Library::Library(std::unique_ptr<Database> db, std::string path) : db_(std::move(db)), path_(std::move(path)) {
-  upgrade();
+  upgrade(nullptr);
 }
 
-Library::Library(const std::string& path) : path_(path) {
+Library::Library(const std::string& path, Progress* upgrade_progress) : path_(path) {
   std::error_code ec;
   if (!std::filesystem::exists(path, ec))
     throw Error("the library does not exist", {path}, "create it with 'vicinal library init' or check --library");
   if (std::filesystem::is_regular_file(path, ec) && std::filesystem::file_size(path, ec) == 0)
     throw Error("the library file is empty", {path}, "create a library with 'vicinal library init' or check --library");
   db_ = std::make_unique<Database>(path, Database::Mode::ReadWrite);
-  upgrade();
+  upgrade(upgrade_progress);
 }
 
-void Library::upgrade() {
-  upgrade_ = upgrade_schema(*db_, [this](int from_version) {
+void Library::upgrade(Progress* progress) {
+  upgrade_ = upgrade_schema(*db_, [this, progress](int from_version) {
     insert_missing_fingerprints();
-    if (from_version < kCurrentKeysVersion) rekey_stored_couplings(*db_);
+    NoProgress quiet;
+    if (from_version < kCurrentKeysVersion) rekey_stored_couplings(*db_, progress ? *progress : quiet);
   });
 }
 
@@ -380,11 +382,17 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
   Statement atoms(db, "SELECT atom_index, element, canonical_rank FROM atoms WHERE compound_id = ? ORDER BY atom_index");
   Statement labels(db, "SELECT label, atom_index FROM atom_labels WHERE compound_id = ? ORDER BY label");
   Statement notes(db, "SELECT text FROM notes WHERE compound_id = ? ORDER BY id");
-  Statement set_notes(db, "SELECT text FROM notes WHERE set_id = ? ORDER BY id");
   Statement sets(db,
                  "SELECT id, name, solvent, temperature_k, field_mhz, ph, instrument, method, measured_by, "
                  "measured_on, source, imported_from FROM measurement_sets WHERE compound_id = ? ORDER BY id");
-  Statement couplings(db, "SELECT " + coupling_columns() + ", id FROM couplings WHERE set_id = ? ORDER BY id");
+  // A compound's set notes, couplings and derived rows are read with one
+  // query each, not one per set: a compound may have many sets.
+  Statement set_notes(db,
+                      "SELECT n.set_id, n.text FROM measurement_sets s JOIN notes n ON n.set_id = s.id "
+                      "WHERE s.compound_id = ? ORDER BY n.id");
+  Statement couplings(db, "SELECT " + coupling_columns("k") +
+                              ", k.id, k.set_id FROM measurement_sets s JOIN couplings k ON k.set_id = s.id "
+                              "WHERE s.compound_id = ? ORDER BY s.id, k.id");
   DerivedRowReader derived(db);
   std::vector<Entry> out;
   for (const auto id : ids) {
@@ -411,10 +419,10 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
     notes.bind(1, id);
     while (notes.step()) c.notes.push_back(notes.text(0));
     notes.reset();
+    std::map<std::int64_t, std::size_t> set_index;  // set id -> index in e.sets
     sets.bind(1, id);
     while (sets.step()) {
       SetRecord s;
-      const std::int64_t set_id = sets.integer(0);
       s.conditions.name = sets.text(1);
       s.conditions.solvent = sets.text(2);
       s.conditions.temperature_k = sets.optional_real(3);
@@ -426,20 +434,27 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
       s.conditions.measured_on = sets.text(9);
       s.conditions.source = sets.text(10);
       s.imported_from = sets.text(11);
-      set_notes.bind(1, set_id);
-      while (set_notes.step()) s.notes.push_back(set_notes.text(0));
-      set_notes.reset();
-      auto derived_rows = derived.of_set(set_id);
-      couplings.bind(1, set_id);
-      while (couplings.step()) {
-        s.couplings.push_back(read_coupling(couplings, 0));
-        if (auto it = derived_rows.find(couplings.integer(kCouplingColumnCount)); it != derived_rows.end())
-          s.couplings.back().derived = std::move(it->second);
-      }
-      couplings.reset();
+      set_index.emplace(sets.integer(0), e.sets.size());
       e.sets.push_back(std::move(s));
     }
     sets.reset();
+    set_notes.bind(1, id);
+    while (set_notes.step()) e.sets[set_index.at(set_notes.integer(0))].notes.push_back(set_notes.text(1));
+    set_notes.reset();
+    auto derived_rows = derived.of_compound(id);
+    couplings.bind(1, id);
+    std::int64_t set_id = 0;
+    std::vector<CouplingRecord>* into = nullptr;
+    while (couplings.step()) {
+      if (!into || couplings.integer(kCouplingColumnCount + 1) != set_id) {
+        set_id = couplings.integer(kCouplingColumnCount + 1);
+        into = &e.sets[set_index.at(set_id)].couplings;
+      }
+      into->push_back(read_coupling(couplings, 0));
+      if (auto it = derived_rows.find(couplings.integer(kCouplingColumnCount)); it != derived_rows.end())
+        into->back().derived = std::move(it->second);
+    }
+    couplings.reset();
     out.push_back(std::move(e));
   }
   return out;

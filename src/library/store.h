@@ -50,7 +50,9 @@ class Library {
   // vicinal::Error when the file is missing, not a library, or newer than
   // this program.
   // An empty file is refused too (SQLite would take it for a new database).
-  explicit Library(const std::string& path);
+  // `upgrade_progress` shows the long part of an upgrade (keys recomputed
+  // for every compound), if any.
+  explicit Library(const std::string& path, Progress* upgrade_progress = nullptr);
   // Creates the file if needed and brings it to the current schema.
   static std::unique_ptr<Library> create(const std::string& path);
 
@@ -72,7 +74,7 @@ class Library {
   int insert_missing_fingerprints();
   // Brings the file to the current schema; what SQL cannot do (fingerprints,
   // identity keys recomputed) runs in the last migration's transaction.
-  void upgrade();
+  void upgrade(Progress* progress);
   Library(std::unique_ptr<Database> db, std::string path);
   std::unique_ptr<Database> db_;
   std::string path_;

@@ -154,8 +154,7 @@ with open(os.path.join(WORK, "alcohols.csv"), "w") as f:
 vicinal("--library", BIG_V1, "library", "import", "alcohols.csv")
 vicinal("--library", BIG_V1, "library", "import", couplings_file("v1"))
 con = sqlite3.connect(BIG_V1)
-con.executescript("DROP INDEX couplings_by_set_identity; CREATE INDEX couplings_by_set ON couplings(set_id);"
-                  "CREATE INDEX couplings_by_identity ON couplings(identity);"
+con.executescript("DROP INDEX couplings_by_set_identity; CREATE INDEX couplings_by_identity ON couplings(identity);"
                   "DROP INDEX couplings_by_isotopes; DROP TABLE compound_fingerprints; PRAGMA user_version = 1;"
                   "PRAGMA journal_mode = DELETE; VACUUM;")
 con.close()
