@@ -398,9 +398,8 @@ def main():
                                                              some])], args.reps)["vicinal library show --json"]
     md += [f"## Library lookup and substructure search ({lib_sizes[-1]:,} couplings, {compounds} compounds)", "",
            f"Substructure `{smarts}` (whole process each): vicinal tests the SMARTS only on compounds whose stored "
-           "fingerprint contains the query's, then reads every coupling of the matching compounds (find returns "
-           "couplings; --limit only shortens the printout); the scan reads every structure file and tests the SMARTS "
-           "on each, nothing more. "
+           "fingerprint contains the query's, then counts the couplings of the matching compounds and reads the "
+           "first five (--limit 5); the scan reads every structure file and tests the SMARTS on each, nothing more. "
            f"{compounds} compounds, not 100,000: each takes about 10 ms to import (InChI, marked canonical SMILES), so a "
            "100,000-compound library is too slow to build in a benchmark run.", ""]
     md += HEADER + rows_for(res, compounds, "compounds/s", "vicinal library find --smarts")

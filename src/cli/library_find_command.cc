@@ -35,11 +35,12 @@ void run_find(Options& o, const Globals& g) {
   o.query.j_min_hz = o.j_min;
   o.query.j_max_hz = o.j_max;
   o.query.bonds = o.bonds;
+  o.query.limit = o.limit;
   auto lib = open_library(g);
   const auto result = library::find_couplings(lib->db(), o.query);
-  const std::size_t shown = std::min(result.couplings.size(), o.limit);
+  const std::size_t shown = result.couplings.size();
   if (g.json) {
-    Json doc = {{"matches", result.couplings.size()}, {"shown", shown}, {"couplings", Json::array()}};
+    Json doc = {{"matches", result.total}, {"shown", shown}, {"couplings", Json::array()}};
     if (!o.query.smarts.empty()) {
       doc["compounds_matching_smarts"] = result.compounds_matched_smarts;
       doc["compounds_skipped_by_fingerprint"] = result.compounds_screened_out;
@@ -74,10 +75,10 @@ void run_find(Options& o, const Globals& g) {
                f.conditions.source.empty() ? "-" : f.conditions.source});
   }
   std::string text = t.render();
-  text += fmt::format("{} coupling{} match", result.couplings.size(), result.couplings.size() == 1 ? "" : "s");
-  if (shown < result.couplings.size()) text += fmt::format(" ({} shown; raise --limit for more)", shown);
+  text += fmt::format("{} coupling{} match", result.total, result.total == 1 ? "" : "s");
+  if (shown < result.total) text += fmt::format(" ({} shown; raise --limit for more)", shown);
   text += "\n";
-  if (std::any_of(result.couplings.begin(), result.couplings.begin() + shown, [](const auto& f) { return f.in_conflict; }))
+  if (std::any_of(result.couplings.begin(), result.couplings.end(), [](const auto& f) { return f.in_conflict; }))
     text += "! another value for the same coupling and conditions is stored too (see library show)\n";
   g.print(text);
 }

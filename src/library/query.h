@@ -23,6 +23,9 @@ struct FindQuery {
   std::string solvent;   // exact, case-insensitive
   std::string source;    // part of the source (case-insensitive)
   bool fingerprint_screen = true;  // off only to check that the screen loses nothing
+  // Read at most this many couplings (the first in compound, set, coupling
+  // order); FindResult::total still counts every match.
+  std::optional<std::size_t> limit;
 };
 
 struct FoundCoupling {
@@ -35,6 +38,7 @@ struct FoundCoupling {
 
 struct FindResult {
   std::vector<FoundCoupling> couplings;
+  std::size_t total = 0;  // couplings that match, read or not (FindQuery::limit)
   std::size_t compounds_screened_out = 0;  // skipped by the fingerprint pre-screen
   std::size_t compounds_matched_smarts = 0;
 };

@@ -110,6 +110,12 @@ contains rejects.csv "mixed.csv:3"; contains rejects.csv "mixed.csv:4"; contains
 run 0 "${L[@]}" --json library find --nuclei H,H --bonds 3
 n_hh=$(json_get 'd["matches"]')
 [[ $n_hh -ge 5 ]] || fail "find --nuclei H,H --bonds 3 found $n_hh"
+# --limit reads fewer couplings but still counts every match.
+run 0 "${L[@]}" --json library find --nuclei H,H --bonds 3 --limit 2
+[[ $(json_get 'd["matches"]') == "$n_hh" && $(json_get 'd["shown"]') == 2 && $(json_get 'len(d["couplings"])') == 2 ]] \
+  || fail "find --limit 2: $(cat out)"
+run 0 "${L[@]}" library find --nuclei H,H --bonds 3 --limit 2
+contains out "$n_hh couplings match (2 shown"
 run 0 "${L[@]}" --json library find --name ETHAN
 [[ $(json_get 'set(c["compound"] for c in d["couplings"])') == "{'ethanol'}" ]] || fail "find --name"
 run 0 "${L[@]}" --json library find --j-min 5 --j-max 5.2
