@@ -27,115 +27,120 @@ std::size_t utf8_length(std::string_view text, std::size_t i) {
 
 }  // namespace
 
-CsvTable CsvTable::parse(std::string_view text, const std::string& source) {
-  CsvTable table;
-  table.source_ = source;
-  if (text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);
+CsvReader::CsvReader(std::string text, const std::string& source) : text_(std::move(text)) {
+  layout_.source_ = source;
+  if (std::string_view(text_).substr(0, 3) == "\xEF\xBB\xBF") at_ = 3;
+  long header_line = 1;
+  std::vector<std::string> header;
+  do {
+    if (!next_record(header, header_line)) throw Error("the file is empty; a header row is required", {source});
+  } while (header.size() == 1 && header[0].empty());
+  for (std::size_t c = 0; c < header.size(); ++c) {
+    if (header[c].empty()) throw Error(fmt::format("header column {} has no name", c + 1), {source, header_line, 0});
+    for (std::size_t d = 0; d < c; ++d)
+      if (header[d] == header[c])
+        throw Error(fmt::format("column '{}' appears twice in the header", header[c]), {source, header_line, 0});
+  }
+  layout_.header_ = std::move(header);
+}
 
-  std::vector<std::vector<std::string>> records;
-  std::vector<long> record_lines;
-  std::vector<std::string> fields;
+CsvReader CsvReader::open_file(const std::string& path) { return CsvReader(read_text_file(path), path); }
+
+bool CsvReader::next(CsvRow& row) {
+  do {
+    if (!next_record(row.fields, row.line)) return false;
+  } while (row.fields.size() == 1 && row.fields[0].empty());
+  if (row.fields.size() != layout_.header_.size())
+    throw Error(fmt::format("this row has {} fields but the header has {}", row.fields.size(),
+                            layout_.header_.size()),
+                {layout_.source_, row.line, 0});
+  return true;
+}
+
+bool CsvReader::next_record(std::vector<std::string>& fields, long& record_line) {
+  const std::string_view text = text_;
+  const std::string& source = layout_.source_;
+  if (at_ >= text.size()) return false;
+  fields.clear();
   std::string field;
-  bool in_quotes = false, field_was_quoted = false, record_open = false;
-  long line = 1, column = 1, record_line = 1, quote_line = 0, quote_column = 0;
-
+  bool in_quotes = false, field_was_quoted = false;
+  long quote_line = 0, quote_column = 0;
+  record_line = line_;
   auto end_field = [&] {
     fields.push_back(field_was_quoted ? field : std::string(trim(field)));
     field.clear();
     field_was_quoted = false;
   };
-  auto end_record = [&] {
-    end_field();
-    const bool blank = fields.size() == 1 && fields[0].empty();
-    if (!blank) {
-      records.push_back(std::move(fields));
-      record_lines.push_back(record_line);
-    }
-    fields.clear();
-    record_open = false;
-  };
-
-  for (std::size_t i = 0; i < text.size();) {
+  std::size_t i = at_;
+  while (i < text.size()) {
     const char c = text[i];
     if (c == '\0')
-      throw Error("the file contains a NUL byte; is it a binary file or UTF-16 text?",
-                  {source, line, column}, "save it as UTF-8 CSV");
-    const std::size_t n = utf8_length(text, i);
-    if (n == 0)
-      throw Error("the file is not valid UTF-8 text", {source, line, column},
+      throw Error("the file contains a NUL byte; is it a binary file or UTF-16 text?", {source, line_, column_},
                   "save it as UTF-8 CSV");
-    if (!record_open) {
-      record_open = true;
-      record_line = line;
-    }
+    const std::size_t n = utf8_length(text, i);
+    if (n == 0) throw Error("the file is not valid UTF-8 text", {source, line_, column_}, "save it as UTF-8 CSV");
     if (in_quotes) {
       if (c == '"') {
         if (i + 1 < text.size() && text[i + 1] == '"') {
           field += '"';
           i += 2;
-          column += 2;
+          column_ += 2;
           continue;
         }
         in_quotes = false;
       } else {
         field.append(text.substr(i, n));
         if (c == '\n' || (c == '\r' && !(i + 1 < text.size() && text[i + 1] == '\n'))) {
-          ++line;
-          column = 0;
+          ++line_;
+          column_ = 0;
         }
       }
       i += n;
-      column += 1;
+      column_ += 1;
       continue;
     }
     if (c == '"') {
       if (!trim(field).empty())
-        throw Error("a quote inside an unquoted field", {source, line, column},
+        throw Error("a quote inside an unquoted field", {source, line_, column_},
                     "quote the whole field and double the inner quotes");
       field.clear();
       in_quotes = field_was_quoted = true;
-      quote_line = line;
-      quote_column = column;
+      quote_line = line_;
+      quote_column = column_;
     } else if (c == ',') {
       end_field();
     } else if (c == '\n' || c == '\r') {
       if (c == '\r' && i + 1 < text.size() && text[i + 1] == '\n') ++i;
-      end_record();
-      ++line;
-      column = 0;
+      end_field();
+      ++line_;
+      column_ = 1;
+      at_ = i + 1;
+      return true;
     } else if (field_was_quoted) {
       if (c != ' ' && c != '\t')
-        throw Error("text after a closing quote", {source, line, column},
+        throw Error("text after a closing quote", {source, line_, column_},
                     "a quoted field must end at the next comma or line end");
     } else {
       field.append(text.substr(i, n));
     }
     i += n;
-    column += 1;
+    column_ += 1;
   }
-  if (in_quotes)
-    throw Error("a quoted field is never closed", {source, quote_line, quote_column});
-  if (record_open) end_record();
+  if (in_quotes) throw Error("a quoted field is never closed", {source, quote_line, quote_column});
+  end_field();
+  at_ = text.size();
+  return true;
+}
 
-  if (records.empty()) throw Error("the file is empty; a header row is required", {source});
-  table.header_ = std::move(records.front());
-  for (std::size_t c = 0; c < table.header_.size(); ++c) {
-    if (table.header_[c].empty())
-      throw Error(fmt::format("header column {} has no name", c + 1),
-                  {source, record_lines.front(), 0});
-    for (std::size_t d = 0; d < c; ++d)
-      if (table.header_[d] == table.header_[c])
-        throw Error(fmt::format("column '{}' appears twice in the header", table.header_[c]),
-                    {source, record_lines.front(), 0});
-  }
-  for (std::size_t r = 1; r < records.size(); ++r) {
-    if (records[r].size() != table.header_.size())
-      throw Error(fmt::format("this row has {} fields but the header has {}", records[r].size(),
-                              table.header_.size()),
-                  {source, record_lines[r], 0});
-    table.rows_.push_back({record_lines[r], std::move(records[r])});
-  }
+CsvTable CsvTable::all_rows(CsvReader reader) {
+  CsvTable table = reader.layout();
+  CsvRow row;
+  while (reader.next(row)) table.rows_.push_back(std::move(row));
   return table;
+}
+
+CsvTable CsvTable::parse(std::string_view text, const std::string& source) {
+  return all_rows(CsvReader(std::string(text), source));
 }
 
 void require_utf8_text(std::string_view text, const std::string& source, long first_line) {
@@ -173,7 +178,7 @@ std::string read_text_file(const std::string& path) {
   return buffer.str();
 }
 
-CsvTable CsvTable::read_file(const std::string& path) { return parse(read_text_file(path), path); }
+CsvTable CsvTable::read_file(const std::string& path) { return all_rows(CsvReader::open_file(path)); }
 
 std::optional<std::size_t> CsvTable::column(std::string_view name) const {
   for (std::size_t c = 0; c < header_.size(); ++c)

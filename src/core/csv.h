@@ -21,6 +21,8 @@ struct CsvRow {
   std::vector<std::string> fields;
 };
 
+class CsvReader;
+
 class CsvTable {
  public:
   // `source` names the input in error messages (a path or "<stdin>").
@@ -39,9 +41,38 @@ class CsvTable {
   Location where(const CsvRow& row, std::size_t column) const;
 
  private:
+  friend class CsvReader;
+  static CsvTable all_rows(CsvReader reader);
   std::string source_;
   std::vector<std::string> header_;
   std::vector<CsvRow> rows_;
+};
+
+// Reads CSV text one record at a time, so that a large file is never held as
+// rows; the same rules and messages as CsvTable::parse (which uses it). A
+// fault is reported when the reading reaches it.
+class CsvReader {
+ public:
+  // Reads and checks the header.
+  CsvReader(std::string text, const std::string& source);
+  static CsvReader open_file(const std::string& path);
+
+  // The header and source, without rows: for column lookups and locations.
+  const CsvTable& layout() const { return layout_; }
+  // The next non-blank record; false at the end of the text.
+  bool next(CsvRow& row);
+  // How far the reading has come, in bytes of the text.
+  std::size_t position() const { return at_; }
+  std::size_t size() const { return text_.size(); }
+
+ private:
+  // The next record's fields, blank ones included; false at the end.
+  bool next_record(std::vector<std::string>& fields, long& record_line);
+
+  std::string text_;
+  CsvTable layout_;
+  std::size_t at_ = 0;
+  long line_ = 1, column_ = 1;
 };
 
 // Quote a field for writing when it needs it.

@@ -58,6 +58,8 @@ namespace {
 // Entries being gathered from rows, with where each compound and set is.
 struct Gathered {
   std::vector<Entry> entries;
+  std::vector<std::string> entry_keys;              // builder key of each entry
+  std::vector<std::vector<std::string>> set_texts;  // set text of each entry's sets
   std::map<std::string, std::size_t> entry_of_key;  // builder key -> entry index
   std::map<std::string, std::size_t> set_of_key;    // entry index + set text -> set index
   std::size_t couplings = 0;
@@ -65,18 +67,24 @@ struct Gathered {
   std::string last_key, last_set_text;
   std::size_t last_entry = 0, last_set = 0;
 
-  // `set_text` is equal for equal conditions and imported_from.
-  void add(const std::string& key, const CompoundBuilder& builder, const SetRecord& set, const std::string& set_text,
+  // `set_text` is equal for equal conditions and imported_from; `set` gives
+  // them (its couplings are not copied).
+  void add(const std::string& key, const CompoundRecord& compound, const SetRecord& set, const std::string& set_text,
            CouplingRecord&& c) {
     if (couplings == 0 || key != last_key || set_text != last_set_text) {
       auto it = entry_of_key.find(key);
       if (it == entry_of_key.end()) {
         it = entry_of_key.emplace(key, entries.size()).first;
-        entries.push_back({builder.record(), {}});
+        entries.push_back({compound, {}});
+        entry_keys.push_back(key);
+        set_texts.emplace_back();
       }
       Entry& entry = entries[it->second];
       auto [s, new_set] = set_of_key.emplace(std::to_string(it->second) + '\x1e' + set_text, entry.sets.size());
-      if (new_set) entry.sets.push_back(set);
+      if (new_set) {
+        entry.sets.push_back({set.conditions, set.imported_from, set.notes, {}});
+        set_texts[it->second].push_back(set_text);
+      }
       last_key = key;
       last_set_text = set_text;
       last_entry = it->second;
@@ -86,7 +94,23 @@ struct Gathered {
     ++couplings;
   }
 
+  // Moves the stereo-unassigned couplings gathered so far to `other`.
+  void move_unassigned_to(Gathered& other) {
+    for (std::size_t e = 0; e < entries.size(); ++e)
+      for (std::size_t s = 0; s < entries[e].sets.size(); ++s) {
+        auto& list = entries[e].sets[s].couplings;
+        const auto held = std::stable_partition(list.begin(), list.end(),
+                                                [](const CouplingRecord& c) { return !c.stereo_unassigned; });
+        for (auto it = held; it != list.end(); ++it)
+          other.add(entry_keys[e], entries[e].compound, entries[e].sets[s], set_texts[e][s], std::move(*it));
+        couplings -= static_cast<std::size_t>(list.end() - held);
+        list.erase(held, list.end());
+      }
+  }
+
   std::vector<Entry> take() {
+    entry_keys.clear();
+    set_texts.clear();
     entry_of_key.clear();
     set_of_key.clear();
     couplings = 0;
@@ -97,7 +121,8 @@ struct Gathered {
 }  // namespace
 
 ImportResult read_csv(const std::string& path, const ImportOptions& options, const EntrySink& sink) {
-  const CsvTable table = CsvTable::read_file(path);
+  CsvReader reader = CsvReader::open_file(path);
+  const CsvTable& table = reader.layout();
   const predict::CouplingRowParser parser(table, true);
 
   std::set<std::string> known(kCompoundColumns.begin(), kCompoundColumns.end());
@@ -133,11 +158,10 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
   std::map<std::string, std::string> failed;
   std::map<std::string, std::string> key_of_name;  // compound name -> builder key
   // A file of more than one batch goes to the sink as it is read, but its
-  // stereo-unassigned rows are held back to the end (EntryBatch).
-  const std::size_t rows_total = table.rows().size();
-  const bool in_batches = sink && rows_total > options.batch_couplings;
+  // stereo-unassigned rows are held back to the end (EntryBatch). A file of
+  // one batch comes whole, its rows in file order.
+  bool in_batches = false;
   Gathered rows, held_back;
-  std::size_t rows_read = 0;
   std::vector<std::size_t> condition_columns;
   for (const auto& name : kSetColumns)
     if (const auto c = column(name)) condition_columns.push_back(*c);
@@ -146,9 +170,13 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
   SetRecord set_template;
   std::string set_text;
 
-  for (const CsvRow& row : table.rows()) {
-    ++rows_read;
-    if (in_batches && rows.couplings >= options.batch_couplings) sink({rows.take(), rows_read - 1, rows_total});
+  CsvRow row;
+  while (reader.next(row)) {
+    if (sink && rows.couplings >= options.batch_couplings) {
+      if (!in_batches) rows.move_unassigned_to(held_back);
+      in_batches = true;
+      sink({rows.take(), reader.position(), reader.size()});
+    }
     try {
       const predict::CouplingRow parsed = parser.parse(row);
       const std::string name = field(row, "compound");
@@ -235,7 +263,8 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
       c.origin = field(row, "origin");
       if (c.origin.empty()) c.origin = path;
 
-      (in_batches && c.stereo_unassigned ? held_back : rows).add(key, builder, set_template, set_text, std::move(c));
+      (in_batches && c.stereo_unassigned ? held_back : rows)
+          .add(key, builder.record(), set_template, set_text, std::move(c));
       ++result.couplings;
     } catch (const Error& e) {
       if (!options.skip_bad) throw;
@@ -245,8 +274,8 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
   if (!sink) {
     result.entries = rows.take();
   } else {
-    sink({rows.take(), rows_total, rows_total});
-    if (held_back.couplings) sink({held_back.take(), rows_total, rows_total});
+    sink({rows.take(), reader.size(), reader.size()});
+    if (held_back.couplings) sink({held_back.take(), reader.size(), reader.size()});
   }
   return result;
 }

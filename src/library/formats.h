@@ -46,7 +46,9 @@ struct ImportResult {
 // (number_unassigned_groups).
 struct EntryBatch {
   std::vector<Entry> entries;
-  std::size_t rows_read = 0, rows_total = 0;  // data rows of the file
+  // How far through the file the batch ends, and the whole (bytes for CSV,
+  // couplings for JSON and SDF): for progress.
+  std::size_t read_so_far = 0, file_total = 0;
 };
 using EntrySink = std::function<void(EntryBatch&&)>;
 

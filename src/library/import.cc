@@ -66,10 +66,11 @@ class BatchStore {
   BatchStore(Library& library, Progress& progress) : library_(library), progress_(progress) {}
   void add(const EntryBatch& batch) {
     if (!tx_) {
-      progress_.start("importing couplings", batch.rows_total);
-      tx_.emplace(library_, progress_);
+      progress_.start("importing", batch.file_total);
+      tx_.emplace(library_);
     }
     tx_->add(batch.entries);
+    progress_.advance(batch.read_so_far);
   }
   StoreReport commit() {
     if (!tx_) return {};

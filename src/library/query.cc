@@ -55,10 +55,11 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
   std::optional<std::set<std::int64_t>> allowed;
   if (!q.smarts.empty()) allowed = substructure_matches(db, q, result);
 
-  std::string sql = " FROM couplings k JOIN measurement_sets s ON s.id = k.set_id JOIN compounds c ON c.id = s.compound_id WHERE 1";
+  std::string from_where =
+      " FROM couplings k JOIN measurement_sets s ON s.id = k.set_id JOIN compounds c ON c.id = s.compound_id WHERE 1";
   std::vector<std::function<void(Statement&, int)>> binders;
   auto add = [&](const std::string& clause, auto value) {
-    sql += " AND " + clause;
+    from_where += " AND " + clause;
     binders.push_back([value](Statement& st, int i) { st.bind(i, value); });
   };
   if (allowed) {
@@ -90,21 +91,21 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
       return std::isdigit(static_cast<unsigned char>(v[0])) ? fmt::format("{} = ?", column)
                                                             : fmt::format("ltrim({}, '0123456789') = ?", column);
     };
-    sql += fmt::format(" AND (({} AND {}) OR ({} AND {}))", term("k.isotope_a", x), term("k.isotope_b", y),
+    from_where += fmt::format(" AND (({} AND {}) OR ({} AND {}))", term("k.isotope_a", x), term("k.isotope_b", y),
                        term("k.isotope_a", y), term("k.isotope_b", x));
     for (const auto& v : {x, y, y, x}) binders.push_back([v](Statement& st, int i) { st.bind(i, v); });
   }
-  Statement count(db, "SELECT count(*)" + sql);
+  const std::string count_sql = "SELECT count(*)" + from_where;
+  const std::string rows_sql =
+      "SELECT c.id, c.name, c.inchikey, s.id, s.name, s.solvent, s.temperature_k, s.field_mhz, s.ph, s.instrument, "
+      "s.method, s.measured_by, s.measured_on, s.source, k.id, " + coupling_columns("k") +
+      ", (SELECT count(*) FROM couplings o WHERE o.set_id = k.set_id AND o.identity = k.identity AND o.j_hz <> k.j_hz)" +
+      from_where + " ORDER BY c.id, s.id, k.id LIMIT ?";
+  Statement count(db, count_sql);
   for (std::size_t i = 0; i < binders.size(); ++i) binders[i](count, static_cast<int>(i) + 1);
   count.step();
   result.total = static_cast<std::size_t>(count.integer(0));
-  Statement st(db,
-               "SELECT c.id, c.name, c.inchikey, s.id, s.name, s.solvent, s.temperature_k, s.field_mhz, s.ph, "
-               "s.instrument, s.method, s.measured_by, s.measured_on, s.source, k.id, " +
-                   coupling_columns("k") +
-                   ", (SELECT count(*) FROM couplings o WHERE o.set_id = k.set_id AND o.identity = k.identity "
-                   "AND o.j_hz <> k.j_hz)" +
-                   sql + " ORDER BY c.id, s.id, k.id LIMIT ?");
+  Statement st(db, rows_sql);
   for (std::size_t i = 0; i < binders.size(); ++i) binders[i](st, static_cast<int>(i) + 1);
   // SQLite reads a negative LIMIT as no limit.
   st.bind(static_cast<int>(binders.size()) + 1, q.limit ? static_cast<std::int64_t>(*q.limit) : std::int64_t{-1});

@@ -101,7 +101,7 @@ StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress
   for (const auto& e : entries)
     for (const auto& s : e.sets) total += s.couplings.size();
   progress.start("storing couplings", total);
-  StoreTransaction tx(*this, progress);
+  StoreTransaction tx(*this, &progress);
   tx.add(entries);
   auto report = tx.commit();
   progress.finish();
@@ -111,7 +111,7 @@ StoreReport Library::store(const std::vector<Entry>& entries, Progress& progress
 // What a store transaction keeps between batches: its statements, its report,
 // and which compounds and sets it created itself.
 struct StoreTransaction::Session {
-  Session(Database& db, Progress& progress)
+  Session(Database& db, Progress* progress)
       : db(db),
         progress(progress),
         tx(db),
@@ -151,7 +151,7 @@ struct StoreTransaction::Session {
   void add(const Entry& entry);
 
   Database& db;
-  Progress& progress;
+  Progress* progress;
   WriteTransaction tx;
   Statement find_compound, insert_compound, touch_compound, insert_atom, insert_label, read_atoms, read_labels,
       read_sets, insert_set, read_couplings, insert_coupling, find_note, insert_note, insert_fingerprint;
@@ -166,7 +166,7 @@ struct StoreTransaction::Session {
   std::set<std::int64_t> counted_compounds, counted_sets;
 };
 
-StoreTransaction::StoreTransaction(Library& library, Progress& progress) {
+StoreTransaction::StoreTransaction(Library& library, Progress* progress) {
   // A large file's transaction outgrows SQLite's default 2 MB page cache, which
   // then spills pages to the WAL mid-transaction and reads them back for every
   // index update (a third of the time at 100,000 rows). The cache only holds
@@ -301,7 +301,7 @@ void StoreTransaction::Session::add(const Entry& entry) {
     for (const auto& note : set.notes) add_note(std::nullopt, set_id, note);
 
     for (const auto& in : set.couplings) {
-      progress.advance(++done);
+      if (progress) progress->advance(++done);
       const auto [first, last] = present.equal_range(in.identity);
       bool duplicate = false;
       for (auto it = first; it != last; ++it)

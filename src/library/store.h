@@ -91,9 +91,9 @@ class Library {
 // uncommitted transaction rolls it all back.
 class StoreTransaction {
  public:
-  // progress.advance gets the count of couplings handled so far; the caller
+  // A given progress gets advance(couplings handled so far); the caller
   // starts and finishes it.
-  StoreTransaction(Library& library, Progress& progress);
+  explicit StoreTransaction(Library& library, Progress* progress = nullptr);
   ~StoreTransaction();
   StoreTransaction(const StoreTransaction&) = delete;
   StoreTransaction& operator=(const StoreTransaction&) = delete;

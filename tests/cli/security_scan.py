@@ -30,7 +30,9 @@ ALLOWED_ARGUMENTS = {
         "the count() lambda, called with literals only",
     ("library/check.cc", "rule.sql"):
         "kRules: a constexpr table of string literals",
-    ("library/query.cc", "sql"):
+    ("library/query.cc", "count_sql"):
+        "find_couplings: assembled from the fixed pieces allowed below, with '?' placeholders; values are bound",
+    ("library/query.cc", "rows_sql"):
         "find_couplings: assembled from the fixed pieces allowed below, with '?' placeholders; values are bound",
     ("library/schema.cc", "read_text_file(m.path.string())"):
         "the shipped migration files schema/NNN_name.sql",
@@ -39,7 +41,9 @@ ALLOWED_ARGUMENTS = {
 ALLOWED_BUILDING = {
     ("library/query.cc", 'coupling_columns("k")'):
         "literal text joined with coupling_columns(), a fixed column list (coupling_row.cc)",
-    ("library/query.cc", 'sql += " AND " + clause'):
+    ("library/query.cc", '"SELECT count(*)" + from_where'):
+        "from_where: the literal FROM clause and the literal conditions added below",
+    ("library/query.cc", 'from_where += " AND " + clause'):
         "clause is one of the literal conditions passed to add() in the same function",
     ("library/query.cc", 'term("k.isotope_a", x)'):
         "the four terms come from term(): a literal column name in a literal template with '?'",
@@ -47,7 +51,7 @@ ALLOWED_BUILDING = {
         "the '+' builds the bound value (a JSON array of compound ids), not SQL text",
     ("library/query.cc", "return std::isdigit"):
         "term(): column is one of the literals k.isotope_a / k.isotope_b; the value is bound",
-    ("library/store.cc", '"SELECT " + coupling_columns()'):
+    ("library/store.cc", '"SELECT " + coupling_columns("k")'):
         "coupling_columns() returns a fixed column list (coupling_row.cc)",
     ("library/schema.cc", 'fmt::format("PRAGMA user_version = {}", m.version)'):
         "m.version is an int parsed from the migration's file name; PRAGMA takes no bound parameters",
