@@ -325,7 +325,8 @@ def main():
     def import_once(csv_path, target, threads=1):
         remove(target)
         run(V + ["--library", target, "library", "init"])
-        return run(one_omp + V + ["--threads", str(threads), "--library", target, "library", "import", csv_path])
+        with_threads = V[:V.index("--threads") + 1] + [str(threads)] + V[V.index("--threads") + 2:]
+        return run(one_omp + with_threads + ["--library", target, "library", "import", csv_path])
 
     def ceiling(cmd):
         remove(ref)

@@ -77,9 +77,11 @@ void setup(CLI::App& root, Globals& g) {
       "stereo-unassigned pair), j_hz, sigma_hz, sign_known (yes/no), set, note.\n"
       "A row without a structure belongs to the compound of that name above it.\n"
       "A file is stored whole or not at all: the first bad row stops the import with\n"
-      "its line, column and reason. Compounds are recognised by InChIKey and couplings\n"
-      "by their atoms' canonical ranks, so a value seen before is not stored twice,\n"
-      "and a different value for the same coupling is kept beside the old one and reported.\n"
+      "its line, column and reason. A large file is stored while it is read (the\n"
+      "reading, with the structure work, on a second thread unless --threads 1).\n"
+      "Compounds are recognised by InChIKey and couplings by their atoms' canonical\n"
+      "ranks, so a value seen before is not stored twice, and a different value for\n"
+      "the same coupling is kept beside the old one and reported.\n"
       "JSON and SDF files written by library export also bring each coupling's derived\n"
       "dihedral intervals; a coupling keeps those it already has for a Karplus set.");
   cmd->callback([o, &g] { run_import(*o, g); });

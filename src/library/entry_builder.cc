@@ -169,31 +169,32 @@ CouplingRecord CompoundBuilder::coupling(const std::array<std::vector<std::strin
   CouplingRecord c;
   c.j_hz = j_hz;
   c.sigma_hz = sigma_hz;
-  const Location at = with_field(where, "nuclei");
+  // Built only for a message: this runs for every row of a file.
+  const auto at = [&] { return with_field(where, "nuclei"); };
   std::array<std::vector<int>*, 2> atoms{&c.atoms_a, &c.atoms_b};
   std::array<std::string*, 2> texts{&c.nucleus_a, &c.nucleus_b};
   for (int side = 0; side < 2; ++side) {
-    if (nuclei[side].empty()) throw Error("a nucleus is missing", at, "write two nuclei, e.g. H-2,H-3");
+    if (nuclei[side].empty()) throw Error("a nucleus is missing", at(), "write two nuclei, e.g. H-2,H-3");
     for (const auto& ref : nuclei[side]) {
       int atom = 0;
       try {
         atom = labels_.resolve(ref, &mol_);
       } catch (const Error& e) {
-        throw Error(e.what_happened(), at, e.hint());
+        throw Error(e.what_happened(), at(), e.hint());
       }
       if (std::find(atoms[side]->begin(), atoms[side]->end(), atom) != atoms[side]->end())
-        throw Error(fmt::format("'{}' is listed twice as an alternative", ref), at);
+        throw Error(fmt::format("'{}' is listed twice as an alternative", ref), at());
       atoms[side]->push_back(atom);
       *texts[side] += (texts[side]->empty() ? "" : "|") + std::string(trim(ref));
     }
   }
   for (int a : c.atoms_a)
     for (int b : c.atoms_b)
-      if (a == b) throw Error(fmt::format("atom {} is coupled to itself", a), at);
+      if (a == b) throw Error(fmt::format("atom {} is coupled to itself", a), at());
   auto known = pair_facts_.find({c.atoms_a, c.atoms_b});
   if (known == pair_facts_.end()) {
     auto facts = facts_of(c.atoms_a, c.atoms_b);
-    if (!facts) throw Error(fmt::format("{} and {} are not connected by bonds", c.nucleus_a, c.nucleus_b), at);
+    if (!facts) throw Error(fmt::format("{} and {} are not connected by bonds", c.nucleus_a, c.nucleus_b), at());
     known = pair_facts_.emplace(std::make_pair(c.atoms_a, c.atoms_b), std::move(*facts)).first;
   }
   const PairFacts& f = known->second;
