@@ -44,4 +44,19 @@ CouplingRecord read_coupling(const Statement& st, int first) {
   return c;
 }
 
+Conditions read_conditions(const Statement& st, int first) {
+  Conditions k;
+  k.name = st.text(first);
+  k.solvent = st.text(first + 1);
+  k.temperature_k = st.optional_real(first + 2);
+  k.field_mhz = st.optional_real(first + 3);
+  k.ph = st.optional_real(first + 4);
+  k.instrument = st.text(first + 5);
+  k.method = st.text(first + 6);
+  k.measured_by = st.text(first + 7);
+  k.measured_on = st.text(first + 8);
+  k.source = st.text(first + 9);
+  return k;
+}
+
 }  // namespace vicinal::library

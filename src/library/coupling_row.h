@@ -1,5 +1,6 @@
 // One place that knows how a CouplingRecord is stored in the couplings
-// table, for every query that reads couplings back.
+// table, and a set's Conditions in measurement_sets, for every query that
+// reads them back.
 #pragma once
 
 #include <string>
@@ -16,5 +17,10 @@ inline constexpr int kCouplingColumnCount = 18;
 
 // The record from a statement whose columns first..first+17 are coupling_columns().
 CouplingRecord read_coupling(const Statement& st, int first);
+
+// The conditions from a statement whose columns first..first+9 are the
+// measurement_sets columns name, solvent, temperature_k, field_mhz, ph,
+// instrument, method, measured_by, measured_on, source.
+Conditions read_conditions(const Statement& st, int first);
 
 }  // namespace vicinal::library

@@ -11,9 +11,9 @@ namespace vicinal::library {
 
 namespace {
 
-// Batches from the reading thread to the storing one. Holding at most two
-// bounds the memory a large file takes to one batch being read, one waiting
-// and one being stored.
+// Batches from the reading thread to the storing one. At most two wait, so a
+// large file takes the memory of about four: one being read, two waiting and
+// one being stored.
 class BatchQueue {
  public:
   // Reading side. Throws Stopped once the storing side has given up.

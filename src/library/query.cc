@@ -92,7 +92,7 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
                                                             : fmt::format("ltrim({}, '0123456789') = ?", column);
     };
     from_where += fmt::format(" AND (({} AND {}) OR ({} AND {}))", term("k.isotope_a", x), term("k.isotope_b", y),
-                       term("k.isotope_a", y), term("k.isotope_b", x));
+                              term("k.isotope_a", y), term("k.isotope_b", x));
     for (const auto& v : {x, y, y, x}) binders.push_back([v](Statement& st, int i) { st.bind(i, v); });
   }
   const std::string count_sql = "SELECT count(*)" + from_where;
@@ -115,17 +115,7 @@ FindResult find_couplings(Database& db, const FindQuery& q) {
     f.compound = st.text(1);
     f.inchikey = st.text(2);
     f.set_id = st.integer(3);
-    auto& k = f.conditions;
-    k.name = st.text(4);
-    k.solvent = st.text(5);
-    k.temperature_k = st.optional_real(6);
-    k.field_mhz = st.optional_real(7);
-    k.ph = st.optional_real(8);
-    k.instrument = st.text(9);
-    k.method = st.text(10);
-    k.measured_by = st.text(11);
-    k.measured_on = st.text(12);
-    k.source = st.text(13);
+    f.conditions = read_conditions(st, 4);
     f.coupling_id = st.integer(14);
     f.coupling = read_coupling(st, 15);
     f.in_conflict = st.integer(15 + kCouplingColumnCount) > 0;

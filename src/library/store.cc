@@ -2,7 +2,6 @@
 
 #include <fmt/format.h>
 
-#include <algorithm>
 #include <filesystem>
 #include <map>
 #include <set>
@@ -258,20 +257,7 @@ void StoreTransaction::Session::add(const Entry& entry) {
   // Sets of this compound already stored, with their couplings by identity.
   std::map<std::string, std::int64_t> stored_sets;
   read_sets.bind(1, compound_id);
-  while (read_sets.step()) {
-    Conditions k;
-    k.name = read_sets.text(1);
-    k.solvent = read_sets.text(2);
-    k.temperature_k = read_sets.optional_real(3);
-    k.field_mhz = read_sets.optional_real(4);
-    k.ph = read_sets.optional_real(5);
-    k.instrument = read_sets.text(6);
-    k.method = read_sets.text(7);
-    k.measured_by = read_sets.text(8);
-    k.measured_on = read_sets.text(9);
-    k.source = read_sets.text(10);
-    stored_sets.emplace(conditions_key(k), read_sets.integer(0));
-  }
+  while (read_sets.step()) stored_sets.emplace(conditions_key(read_conditions(read_sets, 1)), read_sets.integer(0));
   read_sets.reset();
 
   for (const auto& set : entry.sets) {
@@ -423,16 +409,7 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
     sets.bind(1, id);
     while (sets.step()) {
       SetRecord s;
-      s.conditions.name = sets.text(1);
-      s.conditions.solvent = sets.text(2);
-      s.conditions.temperature_k = sets.optional_real(3);
-      s.conditions.field_mhz = sets.optional_real(4);
-      s.conditions.ph = sets.optional_real(5);
-      s.conditions.instrument = sets.text(6);
-      s.conditions.method = sets.text(7);
-      s.conditions.measured_by = sets.text(8);
-      s.conditions.measured_on = sets.text(9);
-      s.conditions.source = sets.text(10);
+      s.conditions = read_conditions(sets, 1);
       s.imported_from = sets.text(11);
       set_index.emplace(sets.integer(0), e.sets.size());
       e.sets.push_back(std::move(s));
