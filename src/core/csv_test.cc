@@ -40,6 +40,37 @@ TEST(Csv, MalformedInputNamesThePlace) {
   EXPECT_NE(message("a,b\n1,2\n").find("no error"), std::string::npos);
 }
 
+TEST(Csv, ReaderGivesRowsBeforeALaterFaultAndNamesItsPlace) {
+  // A reader reports a fault only when it reaches it, with the line and
+  // column CsvTable::parse gives for the same text.
+  const std::string text = "a,b\n1,\"x\ny\"\n\n3,t\xc3\xa9xt\n4,\"q\" z\n";
+  CsvReader reader(text, "r.csv");
+  EXPECT_EQ(reader.layout().header(), (std::vector<std::string>{"a", "b"}));
+  EXPECT_TRUE(reader.layout().rows().empty());
+  CsvRow row;
+  ASSERT_TRUE(reader.next(row));
+  EXPECT_EQ(row.line, 2);
+  EXPECT_EQ(row.fields[1], "x\ny");
+  ASSERT_TRUE(reader.next(row));  // the blank line is skipped
+  EXPECT_EQ(row.line, 5);
+  EXPECT_EQ(row.fields[1], "t\xc3\xa9xt");
+  EXPECT_LT(reader.position(), reader.size());
+  std::string from_reader, from_table;
+  try {
+    reader.next(row);
+  } catch (const Error& e) {
+    from_reader = e.one_line();
+  }
+  try {
+    CsvTable::parse(text, "r.csv");
+  } catch (const Error& e) {
+    from_table = e.one_line();
+  }
+  EXPECT_NE(from_reader.find("r.csv:6:"), std::string::npos) << from_reader;
+  EXPECT_NE(from_reader.find("after a closing quote"), std::string::npos) << from_reader;
+  EXPECT_EQ(from_reader, from_table);
+}
+
 TEST(Csv, EscapeRoundTrips) {
   const std::string tricky = "semi;colon, \"quoted\"\nnewline";
   const auto t = CsvTable::parse("x\n" + csv_escape(tricky) + "\n", "t.csv");
