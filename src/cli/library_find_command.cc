@@ -97,7 +97,9 @@ void setup(CLI::App& root, Globals& g) {
   cmd->add_option("--source", o->query.source, "Part of the source or DOI");
   cmd->add_flag("--no-prescreen", [o](std::int64_t) { o->query.fingerprint_screen = false; },
                 "Match the SMARTS against every compound (to check that the pre-screen loses nothing)");
-  cmd->add_option("--limit", o->limit, "Show at most this many couplings")->capture_default_str();
+  cmd->add_option("--limit", o->limit, "Show at most this many couplings")
+      ->check(CLI::Range(0, 100000000))
+      ->capture_default_str();
   cmd->footer("Example: vicinal library find --smarts 'C1CCOC1' --nuclei H,H --bonds 3 --j-min 8\n"
               "All given criteria must hold. Substructure searches first skip compounds whose\n"
               "stored path fingerprint cannot contain the query, then match the SMARTS.");

@@ -19,17 +19,34 @@ struct Options {
   std::string rejects;
 };
 
-// Removes a library this command created, with SQLite's side files, so that
-// a refused file leaves nothing behind.
-void remove_created_library(const std::string& path) {
+// The outermost folder above `path` that does not exist yet (empty when
+// its folder exists): what creating the library there would create.
+std::filesystem::path first_missing_folder(const std::string& path) {
+  std::filesystem::path missing;
+  for (auto folder = std::filesystem::absolute(path).parent_path();
+       !folder.empty() && !std::filesystem::exists(folder) && folder != folder.parent_path();
+       folder = folder.parent_path())
+    missing = folder;
+  return missing;
+}
+
+// Removes a library this command created, with SQLite's side files and the
+// folders made for it (up to `created_from`, each only if empty), so that a
+// refused file leaves nothing behind.
+void remove_created_library(const std::string& path, const std::filesystem::path& created_from) {
   std::error_code ignored;
   for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix, ignored);
+  if (created_from.empty()) return;
+  for (auto folder = std::filesystem::absolute(path).parent_path();; folder = folder.parent_path()) {
+    if (!std::filesystem::remove(folder, ignored) || folder == created_from) break;
+  }
 }
 
 void run_import(const Options& o, const Globals& g) {
   library::ImportOptions options;
   options.skip_bad = o.skip_bad;
   const bool existed = std::filesystem::exists(g.library_path());
+  const auto created_from = existed ? std::filesystem::path() : first_missing_folder(g.library_path());
   auto lib = open_library(g, true);
   auto progress = g.progress();
   library::ImportOutcome outcome;
@@ -38,7 +55,7 @@ void run_import(const Options& o, const Globals& g) {
   } catch (...) {
     if (!existed) {
       lib.reset();
-      remove_created_library(g.library_path());
+      remove_created_library(g.library_path(), created_from);
     }
     throw;
   }

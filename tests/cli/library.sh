@@ -89,9 +89,12 @@ run 2 "${L[@]}" library import badc.csv; one_line_error; contains err "unknown c
 printf 'compound,smiles,nuclei,j_hz\nbutane,CCCC,"5,8",1500\n' > badj.csv
 run 2 "${L[@]}" library import badj.csv; one_line_error; contains err "1000"
 [[ $(count lib.sqlite "select count(*) from couplings") == "$before" ]] || fail "a refused file left rows behind"
-# A refused file does not leave behind the library the import would have created.
+# A refused file does not leave behind the library the import would have
+# created, nor the folders made for it.
 run 2 --library "$WORK/never.sqlite" library import badj.csv; one_line_error
 [[ ! -e never.sqlite && ! -e never.sqlite-wal && ! -e never.sqlite-shm ]] || fail "a refused file left a new library"
+run 2 --library "$WORK/new/deeper/never.sqlite" library import badj.csv; one_line_error
+[[ ! -e new ]] || fail "a refused file left the folders made for a new library"
 
 # --skip-bad: good rows stored, bad ones in the reject file with reasons.
 cat > mixed.csv <<'CSV'
@@ -116,6 +119,7 @@ run 0 "${L[@]}" --json library find --nuclei H,H --bonds 3 --limit 2
   || fail "find --limit 2: $(cat out)"
 run 0 "${L[@]}" library find --nuclei H,H --bonds 3 --limit 2
 contains out "$n_hh couplings match (2 shown"
+run 2 "${L[@]}" library find --nuclei H,H --limit -1; one_line_error
 run 0 "${L[@]}" --json library find --name ETHAN
 [[ $(json_get 'set(c["compound"] for c in d["couplings"])') == "{'ethanol'}" ]] || fail "find --name"
 run 0 "${L[@]}" --json library find --j-min 5 --j-max 5.2
