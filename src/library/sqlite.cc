@@ -48,11 +48,13 @@ Statement& Statement::bind(int index, double value) {
   if (int rc = sqlite3_bind_double(stmt_, index, value); rc != SQLITE_OK) db_->fail(rc, "binding");
   return *this;
 }
-Statement& Statement::bind(int index, std::string_view text) {
-  const int rc = sqlite3_bind_text64(stmt_, index, text.data(), text.size(), SQLITE_TRANSIENT, SQLITE_UTF8);
+Statement& Statement::bind_text(int index, std::string_view text, sqlite3_destructor_type lifetime) {
+  const int rc = sqlite3_bind_text64(stmt_, index, text.data(), text.size(), lifetime, SQLITE_UTF8);
   if (rc != SQLITE_OK) db_->fail(rc, "binding");
   return *this;
 }
+Statement& Statement::bind(int index, std::string_view text) { return bind_text(index, text, SQLITE_TRANSIENT); }
+Statement& Statement::bind_in_place(int index, std::string_view text) { return bind_text(index, text, SQLITE_STATIC); }
 Statement& Statement::bind_blob(int index, const std::vector<unsigned char>& bytes) {
   const int rc = sqlite3_bind_blob64(stmt_, index, bytes.data(), bytes.size(), SQLITE_TRANSIENT);
   if (rc != SQLITE_OK) db_->fail(rc, "binding");

@@ -32,6 +32,9 @@ class Statement {
   Statement& bind(int index, std::string_view text);
   Statement& bind(int index, const char* text) { return bind(index, std::string_view(text)); }
   Statement& bind(int index, const std::string& text) { return bind(index, std::string_view(text)); }
+  // Binds text without copying it: the text must stay unchanged until the
+  // statement has run (or been reset).
+  Statement& bind_in_place(int index, std::string_view text);
   Statement& bind_blob(int index, const std::vector<unsigned char>& bytes);
   Statement& bind_null(int index);
   template <typename T>
@@ -54,6 +57,7 @@ class Statement {
   std::vector<unsigned char> blob(int column) const;
 
  private:
+  Statement& bind_text(int index, std::string_view text, sqlite3_destructor_type lifetime);
   Database* db_;
   sqlite3_stmt* stmt_ = nullptr;
 };

@@ -2,12 +2,14 @@
 
 #include <fmt/format.h>
 
+#include <deque>
 #include <filesystem>
 #include <map>
 #include <set>
 
 #include "core/atomic_file.h"
 #include "core/error.h"
+#include "library/coupling_inserter.h"
 #include "library/coupling_row.h"
 #include "library/derived.h"
 #include "library/fingerprint.h"
@@ -47,7 +49,7 @@ struct StoredCoupling {
   double j_hz;
   std::optional<double> sigma_hz;
   bool sign_known;
-  std::string origin;
+  std::string_view origin;
 };
 
 }  // namespace
@@ -129,13 +131,10 @@ struct StoreTransaction::Session {
                    "instrument, method, measured_by, measured_on, source, imported_from) "
                    "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"),
         read_couplings(db, "SELECT identity, j_hz, sigma_hz, sign_known, origin FROM couplings WHERE set_id = ?"),
-        insert_coupling(db,
-                        "INSERT INTO couplings (set_id, nucleus_a, nucleus_b, atoms_a, atoms_b, path, bond_count, "
-                        "isotope_a, isotope_b, j_hz, sigma_hz, sign_known, assignment, ranks_a, ranks_b, identity, "
-                        "karplus_set, note, origin) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"),
         find_note(db, "SELECT 1 FROM notes WHERE compound_id IS ? AND set_id IS ? AND text = ?"),
         insert_note(db, "INSERT INTO notes (compound_id, set_id, text) VALUES (?, ?, ?)"),
         insert_fingerprint(db, "INSERT INTO compound_fingerprints (compound_id, kind, bits) VALUES (?, ?, ?)"),
+        couplings(db),
         derived(db) {}
 
   void add_note(std::optional<std::int64_t> compound, std::optional<std::int64_t> set, const std::string& text) {
@@ -153,7 +152,8 @@ struct StoreTransaction::Session {
   Progress* progress;
   WriteTransaction tx;
   Statement find_compound, insert_compound, touch_compound, insert_atom, insert_label, read_atoms, read_labels,
-      read_sets, insert_set, read_couplings, insert_coupling, find_note, insert_note, insert_fingerprint;
+      read_sets, insert_set, read_couplings, find_note, insert_note, insert_fingerprint;
+  CouplingInserter couplings;
   DerivedRowWriter derived;
   StoreReport report;
   std::size_t done = 0;
@@ -171,6 +171,10 @@ StoreTransaction::StoreTransaction(Library& library, Progress* progress) {
   // index update (a third of the time at 100,000 rows). The cache only holds
   // pages the transaction touches; it is this connection's, not the file's.
   library.db().exec("PRAGMA cache_size = -262144");  // KiB: up to 256 MB
+  // A statement that inserts many rows (CouplingInserter) keeps a journal of
+  // the pages it changes, to undo just itself should a CHECK fail half-way; in
+  // memory, not in a temporary file, where it multiplied the writes tenfold.
+  library.db().exec("PRAGMA temp_store = MEMORY");
   session_ = std::make_unique<Session>(library.db(), progress);
 }
 
@@ -262,16 +266,21 @@ void StoreTransaction::Session::add(const Entry& entry) {
 
   for (const auto& set : entry.sets) {
     std::int64_t set_id = 0;
-    std::multimap<std::string, StoredCoupling> present;
+    // The set's couplings by identity: those stored before (their texts kept
+    // in `stored_texts`) and those added from this entry (viewed in place).
+    std::deque<std::string> stored_texts;
+    std::multimap<std::string_view, StoredCoupling> present;
     const std::string set_key = conditions_key(set.conditions);
     if (auto it = stored_sets.find(set_key); it != stored_sets.end()) set_id = it->second;
     if (set_id != 0) {
       if (counted_sets.insert(set_id).second) ++report.sets_known;
       read_couplings.bind(1, set_id);
-      while (read_couplings.step())
-        present.emplace(read_couplings.text(0),
-                        StoredCoupling{read_couplings.real(1), read_couplings.optional_real(2),
-                                       read_couplings.integer(3) != 0, read_couplings.text(4)});
+      while (read_couplings.step()) {
+        const std::string& identity = stored_texts.emplace_back(read_couplings.text(0));
+        const std::string& origin = stored_texts.emplace_back(read_couplings.text(4));
+        present.emplace(identity, StoredCoupling{read_couplings.real(1), read_couplings.optional_real(2),
+                                                 read_couplings.integer(3) != 0, origin});
+      }
       read_couplings.reset();
     } else {
       const Conditions& k = set.conditions;
@@ -295,44 +304,45 @@ void StoreTransaction::Session::add(const Entry& entry) {
                      it->second.sign_known == in.sign_known;
       if (duplicate) {
         ++report.couplings_duplicate;
+        // Derived rows go to the stored coupling, which may still be queued.
+        if (!in.derived.empty()) couplings.flush();
         derived.add_to_duplicate(set_id, in);
         continue;
       }
       if (first != last)
         report.conflicts.push_back({stored_name, c.inchikey, set.conditions.name, in.nucleus_a + "," + in.nucleus_b,
-                                    first->second.j_hz, first->second.sigma_hz, first->second.origin, in.j_hz,
-                                    in.sigma_hz, in.origin});
-      auto map_atoms = [&](const std::vector<int>& atoms) {
-        std::vector<int> out;
-        for (int a : atoms) out.push_back(to_stored.at(static_cast<std::size_t>(a)));
-        return out;
-      };
-      const auto atoms_a = map_atoms(in.atoms_a), atoms_b = map_atoms(in.atoms_b);
-      insert_coupling.bind(1, set_id)
-          .bind(2, known ? restate_nucleus(in.nucleus_a, atoms_a, stored_labels, stored_elements) : in.nucleus_a)
-          .bind(3, known ? restate_nucleus(in.nucleus_b, atoms_b, stored_labels, stored_elements) : in.nucleus_b)
-          .bind(4, join_atoms(atoms_a, '|'))
-          .bind(5, join_atoms(atoms_b, '|'))
-          .bind(6, join_atoms(map_atoms(in.path), '-'))
-          .bind(7, in.bond_count)
-          .bind(8, in.isotope_a)
-          .bind(9, in.isotope_b)
-          .bind(10, in.j_hz)
-          .bind(11, in.sigma_hz)
-          .bind(12, in.sign_known ? 1 : 0)
-          .bind(13, in.stereo_unassigned ? "stereo-unassigned" : "assigned")
-          .bind(14, in.ranks_a)
-          .bind(15, in.ranks_b)
-          .bind(16, in.identity)
-          .bind(17, in.karplus_set)
-          .bind(18, in.note)
-          .bind(19, in.origin);
-      insert_coupling.run();
-      derived.add(db.last_insert_id(), in.derived);
+                                    first->second.j_hz, first->second.sigma_hz, std::string(first->second.origin),
+                                    in.j_hz, in.sigma_hz, in.origin});
+      CouplingInserter::Row row;
+      row.set_id = set_id;
+      row.record = &in;
+      if (known) {
+        auto map_atoms = [&](const std::vector<int>& atoms) {
+          std::vector<int> out;
+          for (int a : atoms) out.push_back(to_stored.at(static_cast<std::size_t>(a)));
+          return out;
+        };
+        const auto atoms_a = map_atoms(in.atoms_a), atoms_b = map_atoms(in.atoms_b);
+        row.nucleus_a = restate_nucleus(in.nucleus_a, atoms_a, stored_labels, stored_elements);
+        row.nucleus_b = restate_nucleus(in.nucleus_b, atoms_b, stored_labels, stored_elements);
+        row.atoms_a = join_atoms(atoms_a, '|');
+        row.atoms_b = join_atoms(atoms_b, '|');
+        row.path = join_atoms(map_atoms(in.path), '-');
+      } else {
+        row.nucleus_a = in.nucleus_a;
+        row.nucleus_b = in.nucleus_b;
+        row.atoms_a = join_atoms(in.atoms_a, '|');
+        row.atoms_b = join_atoms(in.atoms_b, '|');
+        row.path = join_atoms(in.path, '-');
+      }
+      if (in.derived.empty()) couplings.add(std::move(row));
+      else derived.add(couplings.insert_now(std::move(row)), in.derived);
       present.emplace(in.identity, StoredCoupling{in.j_hz, in.sigma_hz, in.sign_known, in.origin});
       ++report.couplings_added;
     }
   }
+  // Queued rows point into this entry's records.
+  couplings.flush();
 }
 
 std::vector<Entry> read_other_library(const std::string& path) {
