@@ -7,6 +7,7 @@
 #include <openbabel/obconversion.h>
 #include <openbabel/obiter.h>
 #include <openbabel/stereo/stereo.h>
+#include <openbabel/stereo/tetrahedral.h>
 
 #include <algorithm>
 
@@ -38,6 +39,19 @@ std::string join(const std::vector<unsigned>& values) {
 }
 
 }  // namespace
+
+void reflect_stereo(OpenBabel::OBMol& mol) {
+  for (auto* data : mol.GetAllData(OpenBabel::OBGenericDataType::StereoData)) {
+    auto* unit = static_cast<OpenBabel::OBStereoBase*>(data);
+    if (unit->GetType() != OpenBabel::OBStereo::Tetrahedral) continue;
+    auto* centre = static_cast<OpenBabel::OBTetrahedralStereo*>(unit);
+    auto config = centre->GetConfig();
+    if (!config.specified) continue;
+    config.winding = config.winding == OpenBabel::OBStereo::Clockwise ? OpenBabel::OBStereo::AntiClockwise
+                                                                       : OpenBabel::OBStereo::Clockwise;
+    centre->SetConfig(config);
+  }
+}
 
 std::string inchi_of(const OpenBabel::OBMol& mol) {
   structure::LogCapture quiet;
@@ -93,24 +107,20 @@ std::string CompoundIdentity::marked_smiles(const std::vector<int>& a, const std
   structure::LogCapture quiet;
   // The canonical SMILES of the marked molecule; where the molecule has a
   // mirror symmetry, the smaller of that and its mirror image's (enantiotopic
-  // pairs are one coupling). The mirror is built (x negated: a reflection for
-  // 3D coordinates and for a flat drawing with wedges alike) and written
-  // again: swapping '@' and '@@' in the string gives a SMILES of the mirror
-  // image, but not always its canonical one, as canonical order breaks ties
-  // by stereo.
+  // pairs are one coupling). The mirror image's stereo is reflected and the
+  // molecule written again: swapping '@' and '@@' in the string gives a
+  // SMILES of the mirror image, but not always its canonical one, as
+  // canonical order breaks ties by stereo.
   auto with_marks = [&](unsigned mark_a, unsigned mark_b) {
     OpenBabel::OBMol copy(mol_);
     for (int atom : a) copy.GetAtom(atom)->SetAtomicNum(mark_a);
     for (int atom : b) copy.GetAtom(atom)->SetAtomicNum(mark_b);
-    auto canonical = [&] {
-      copy.DeleteData(OpenBabel::OBGenericDataType::StereoData);
-      OpenBabel::PerceiveStereo(&copy, true);
-      return write_as(copy, "can", "n");
-    };
-    const std::string smiles = canonical();
+    copy.DeleteData(OpenBabel::OBGenericDataType::StereoData);
+    OpenBabel::PerceiveStereo(&copy, true);
+    const std::string smiles = write_as(copy, "can", "n");
     if (!symmetry_->has_mirror()) return smiles;
-    FOR_ATOMS_OF_MOL(atom, copy) atom->SetVector(-atom->GetX(), atom->GetY(), atom->GetZ());
-    return std::min(smiles, canonical());
+    reflect_stereo(copy);
+    return std::min(smiles, write_as(copy, "can", "n"));
   };
   // Two different marks (one mark on both would let Open Babel, whose
   // symmetry classes ignore hydrogens, take a marked CH3 and a marked H on

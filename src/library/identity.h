@@ -63,6 +63,12 @@ class CompoundIdentity {
   std::map<PairSymmetry::Pair, std::string> marked_by_kept_orbit_;
 };
 
+// Turns the perceived stereo of `mol` into that of its mirror image without
+// perceiving it again: a reflection inverts every tetrahedral centre and
+// leaves cis/trans and square-planar units as they are. Half the cost of
+// perceiving from mirrored coordinates, which computes the graph symmetry.
+void reflect_stereo(OpenBabel::OBMol& mol);
+
 // The InChI/InChIKey of a molecule alone (for checks and tests).
 std::string inchi_of(const OpenBabel::OBMol& mol);
 std::string inchikey_of(const OpenBabel::OBMol& mol);
