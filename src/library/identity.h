@@ -65,8 +65,9 @@ class CompoundIdentity {
 
 // Turns the perceived stereo of `mol` into that of its mirror image without
 // perceiving it again: a reflection inverts every tetrahedral centre and
-// leaves cis/trans and square-planar units as they are. Half the cost of
-// perceiving from mirrored coordinates, which computes the graph symmetry.
+// leaves cis/trans and square-planar units as they are. Cheaper than
+// perceiving from mirrored coordinates, which computes the graph symmetry
+// again.
 void reflect_stereo(OpenBabel::OBMol& mol);
 
 // The InChI/InChIKey of a molecule alone (for checks and tests).
