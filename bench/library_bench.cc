@@ -1,7 +1,8 @@
 // Library import (CSV read + store in one transaction into a fresh file) and
 // lookup by compound name, by number of coupling rows (straight-chain
 // alcohols from SMILES, see write_rows: mostly the 3D build of each new
-// compound), and one compound's couplings from a 1,000,000-coupling library.
+// compound), and one compound's couplings from a 1,000,000-coupling library,
+// beside SQLite's own cost of reading the same rows.
 #include <benchmark/benchmark.h>
 
 #include <cstdlib>
@@ -11,6 +12,7 @@
 #include <vector>
 
 #include "core/progress.h"
+#include "library/coupling_row.h"
 #include "library/formats.h"
 #include "library/query.h"
 #include "library/store.h"
@@ -101,6 +103,55 @@ void lookup(benchmark::State& state, const char* compound_variable) {
   state.counters["couplings"] = static_cast<double>(couplings);
 }
 
+// The floor under lookup_compound: SQLite alone running the same couplings
+// query for the same compound and reading every column once through the C
+// API, with nothing copied and no records built. The bulk compound's lookup
+// cannot be faster than this with the library's schema.
+void lookup_compound_sqlite_floor(benchmark::State& state) {
+  const char* path = std::getenv("VICINAL_BENCH_LIBRARY");
+  const char* name = std::getenv("VICINAL_BENCH_COMPOUND");
+  if (!path || !name) {
+    state.SkipWithError("VICINAL_BENCH_LIBRARY or VICINAL_BENCH_COMPOUND not set");
+    return;
+  }
+  Library library(path);
+  const std::int64_t id = find_compound(library.db(), name);
+  sqlite3* db = library.db().handle();
+  sqlite3_stmt* query = nullptr;
+  const std::string sql = compound_couplings_query();
+  if (sqlite3_prepare_v2(db, sql.c_str(), -1, &query, nullptr) != SQLITE_OK) {
+    state.SkipWithError(sqlite3_errmsg(db));
+    return;
+  }
+  std::size_t couplings = 0;
+  for (auto _ : state) {
+    // One read transaction per lookup, as read_entries takes.
+    sqlite3_exec(db, "BEGIN", nullptr, nullptr, nullptr);
+    sqlite3_bind_int64(query, 1, id);
+    couplings = 0;
+    std::size_t bytes = 0;
+    while (sqlite3_step(query) == SQLITE_ROW) {
+      for (int c = 0; c < sqlite3_column_count(query); ++c) {
+        switch (sqlite3_column_type(query, c)) {
+          case SQLITE_INTEGER: bytes += static_cast<std::size_t>(sqlite3_column_int64(query, c) & 1); break;
+          case SQLITE_FLOAT: bytes += sqlite3_column_double(query, c) > 0; break;
+          case SQLITE_TEXT:
+            benchmark::DoNotOptimize(sqlite3_column_text(query, c));
+            bytes += static_cast<std::size_t>(sqlite3_column_bytes(query, c));
+            break;
+          default: break;
+        }
+      }
+      ++couplings;
+    }
+    sqlite3_reset(query);
+    sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr);
+    benchmark::DoNotOptimize(bytes);
+  }
+  sqlite3_finalize(query);
+  state.counters["couplings"] = static_cast<double>(couplings);
+}
+
 // A compound of the bulk file: about 2,000 couplings over 78 measurement sets.
 void lookup_compound(benchmark::State& state) { lookup(state, "VICINAL_BENCH_COMPOUND"); }
 // A compound measured as a group would: a few dozen couplings in three solvents.
@@ -113,5 +164,6 @@ void lookup_typical_compound(benchmark::State& state) { lookup(state, "VICINAL_B
 BENCHMARK(import_csv)->Arg(30)->Arg(100)->Arg(300)->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK(find_by_name)->Arg(30)->Arg(100)->Arg(300)->Unit(benchmark::kMillisecond);
 BENCHMARK(lookup_compound)->Unit(benchmark::kMillisecond);
+BENCHMARK(lookup_compound_sqlite_floor)->Unit(benchmark::kMillisecond);
 BENCHMARK(lookup_typical_compound)->Unit(benchmark::kMillisecond);
 BENCHMARK_MAIN();

@@ -9,7 +9,7 @@ packages=(
   build-essential cmake pkg-config git ccache
   # core libraries
   libsqlite3-dev sqlite3 libeigen3-dev libceres-dev libopenbabel-dev openbabel
-  libcli11-dev nlohmann-json3-dev libfmt-dev libfast-float-dev libcairo2-dev
+  libcli11-dev nlohmann-json3-dev libfmt-dev libfast-float-dev libcairo2-dev libjemalloc-dev
   fonts-dejavu-core
   # tests and benchmarks
   libgtest-dev libgmock-dev libbenchmark-dev

@@ -21,6 +21,12 @@ std::string coupling_columns(const std::string& alias) {
   return out;
 }
 
+std::string compound_couplings_query() {
+  return "SELECT " + coupling_columns("k") +
+         ", k.id, k.set_id FROM measurement_sets s JOIN couplings k ON k.set_id = s.id "
+         "WHERE s.compound_id = ? ORDER BY s.id, k.id";
+}
+
 CouplingRecord read_coupling(const Statement& st, int first) {
   CouplingRecord c;
   c.nucleus_a = st.text(first);

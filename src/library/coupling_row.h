@@ -15,6 +15,11 @@ namespace vicinal::library {
 std::string coupling_columns(const std::string& alias = "");
 inline constexpr int kCouplingColumnCount = 18;
 
+// The query that reads one compound's couplings (parameter 1: the compound
+// id), in set and coupling order: coupling_columns("k"), then the coupling id
+// and its set id.
+std::string compound_couplings_query();
+
 // The record from a statement whose columns first..first+17 are coupling_columns().
 CouplingRecord read_coupling(const Statement& st, int first);
 

@@ -380,9 +380,7 @@ std::vector<Entry> read_entries(Database& db, const std::vector<std::int64_t>& w
   Statement set_notes(db,
                       "SELECT n.set_id, n.text FROM measurement_sets s JOIN notes n ON n.set_id = s.id "
                       "WHERE s.compound_id = ? ORDER BY n.id");
-  Statement couplings(db, "SELECT " + coupling_columns("k") +
-                              ", k.id, k.set_id FROM measurement_sets s JOIN couplings k ON k.set_id = s.id "
-                              "WHERE s.compound_id = ? ORDER BY s.id, k.id");
+  Statement couplings(db, compound_couplings_query());
   DerivedRowReader derived(db);
   std::vector<Entry> out;
   for (const auto id : ids) {
