@@ -10,8 +10,12 @@ namespace vicinal {
 
 class Progress {
  public:
+  // What advance() counts: items of work, or bytes of a file read.
+  enum class Unit { Items, Bytes };
+
   virtual ~Progress() = default;
-  virtual void start(std::string_view task, std::size_t total) = 0;
+  virtual void start(std::string_view task, std::size_t total, Unit unit) = 0;
+  void start(std::string_view task, std::size_t total) { start(task, total, Unit::Items); }
   virtual void advance(std::size_t done) = 0;  // absolute count of finished units
   virtual void finish() = 0;
 };
@@ -19,7 +23,8 @@ class Progress {
 // Does nothing; the default for library callers and tests.
 class NoProgress final : public Progress {
  public:
-  void start(std::string_view, std::size_t) override {}
+  using Progress::start;
+  void start(std::string_view, std::size_t, Unit) override {}
   void advance(std::size_t) override {}
   void finish() override {}
 };

@@ -175,7 +175,7 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
     if (sink && rows.couplings >= options.batch_couplings) {
       if (!in_batches) rows.move_unassigned_to(held_back);
       in_batches = true;
-      sink({rows.take(), reader.position(), reader.size()});
+      sink({rows.take(), reader.position(), reader.size(), Progress::Unit::Bytes});
     }
     try {
       const predict::CouplingRow parsed = parser.parse(row);
@@ -274,8 +274,8 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
   if (!sink) {
     result.entries = rows.take();
   } else {
-    sink({rows.take(), reader.size(), reader.size()});
-    if (held_back.couplings) sink({held_back.take(), reader.size(), reader.size()});
+    sink({rows.take(), reader.size(), reader.size(), Progress::Unit::Bytes});
+    if (held_back.couplings) sink({held_back.take(), reader.size(), reader.size(), Progress::Unit::Bytes});
   }
   return result;
 }

@@ -13,6 +13,7 @@
 #include <string>
 #include <vector>
 
+#include "core/progress.h"
 #include "library/records.h"
 
 namespace vicinal::library {
@@ -49,6 +50,7 @@ struct EntryBatch {
   // How far through the file the batch ends, and the whole (bytes for CSV,
   // couplings for JSON and SDF): for progress.
   std::size_t read_so_far = 0, file_total = 0;
+  Progress::Unit unit = Progress::Unit::Items;
 };
 using EntrySink = std::function<void(EntryBatch&&)>;
 

@@ -66,7 +66,7 @@ class BatchStore {
   BatchStore(Library& library, Progress& progress) : library_(library), progress_(progress) {}
   void add(const EntryBatch& batch) {
     if (!tx_) {
-      progress_.start("importing", batch.file_total);
+      progress_.start("importing", batch.file_total, batch.unit);
       tx_.emplace(library_);
     }
     tx_->add(batch.entries);

@@ -100,7 +100,9 @@ TEST(ConformerSearch, RingFlipsGiveBothChairsOfAnOxane) {
   EXPECT_TRUE(std::any_of(trans.h2_h3_deg.begin(), trans.h2_h3_deg.end(), gauche));
   for (std::size_t f = 0; f < trans.e.frame_count(); ++f)
     for (std::size_t g = 0; g < trans.e.frame_count(); ++g)
-      if (anti(trans.h2_h3_deg[f]) && gauche(trans.h2_h3_deg[g])) EXPECT_LT(trans.ring_deg[f] * trans.ring_deg[g], 0);
+      if (anti(trans.h2_h3_deg[f]) && gauche(trans.h2_h3_deg[g])) {
+        EXPECT_LT(trans.ring_deg[f] * trans.ring_deg[g], 0);
+      }
 
   const Chairs cis = oxanol_chairs("O1[C@H](CO)[C@H](O)CCC1");
   ASSERT_GT(cis.e.frame_count(), 1u);
