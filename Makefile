@@ -3,7 +3,7 @@ BUILD ?= build
 JOBS ?= 2
 CMAKE_FLAGS ?=
 
-.PHONY: demo test bench clean deps configure build sanitize fuzz
+.PHONY: demo test bench bench-search clean deps configure build sanitize fuzz
 
 deps:
 	bash tools/install-deps.sh
@@ -28,6 +28,14 @@ bench: deps
 	cmake --build $(BENCH_BUILD) -j$(JOBS) --target vicinal karplus_bench j_matrix_bench \
 	  frame_reader_bench fit_bench spin_bench library_bench parse_floor
 	/usr/bin/python3 bench/compare.py --build $(BENCH_BUILD)
+
+# Substructure search over a 100,000-compound library against a plain Open
+# Babel scan (writes bench/results/search-scale.md; about 15 minutes the first
+# time, while RDKit embeds the structures).
+bench-search: deps
+	cmake -S . -B $(BENCH_BUILD) -DCMAKE_BUILD_TYPE=Release -DVICINAL_BUILD_BENCHMARKS=ON $(CMAKE_FLAGS)
+	cmake --build $(BENCH_BUILD) -j$(JOBS) --target vicinal
+	/usr/bin/python3 bench/search_scale.py --build $(BENCH_BUILD)
 
 # The whole test suite under AddressSanitizer + UndefinedBehaviorSanitizer (gcc)
 # in build-sanitize. Leak suppressions for system libraries: tests/sanitize/lsan.supp.

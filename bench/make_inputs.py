@@ -203,3 +203,79 @@ def write_library_bulk(folder, compounds, couplings):
                     first = False
                     written += 1
     return path
+
+
+# Compounds for the substructure search at scale: a-CH2-(CH2)n-CH(b)-CH2-c
+# with a, b, c among common substituents (each bonded through its first
+# atom), distinct by canonical SMILES (RDKit), every one with a vicinal
+# H-C-C-H.
+SEARCH_GROUPS = ["C", "CC", "C(C)C", "O", "OC", "N", "NC", "N(C)C", "F", "Cl", "Br", "I", "S", "SC", "C(=O)O",
+                 "C(=O)OC", "C(=O)N", "C#N", "c1ccccc1", "c1ccncc1", "C1CC1", "C1CCCC1", "C=C", "OC(=O)C",
+                 "C(F)(F)F"]
+
+
+def search_compounds(count):
+    """`count` distinct SMILES, in a fixed order."""
+    from rdkit import Chem
+    out, seen = [], set()
+    for n in range(0, 40):
+        for a in SEARCH_GROUPS:
+            for b in SEARCH_GROUPS:
+                for c in SEARCH_GROUPS:
+                    canonical = Chem.CanonSmiles(f"C({a}){'C' * n}C({b})C{c}")
+                    if canonical in seen:
+                        continue
+                    seen.add(canonical)
+                    out.append(canonical)
+                    if len(out) == count:
+                        return out
+    raise ValueError(f"at most {len(out)} search compounds")
+
+
+def search_record(job):
+    """(index, SMILES) -> (index, 3D SDF record with hydrogens, one vicinal
+    H-H pair as 1-based atoms), or None when RDKit cannot embed it."""
+    from rdkit import Chem
+    from rdkit.Chem import AllChem
+    index, smiles = job
+    mol = Chem.AddHs(Chem.MolFromSmiles(smiles))
+    # Plain distance geometry: half the time of ETKDG, and a substructure
+    # search does not look at conformations.
+    params = AllChem.KDG()
+    params.randomSeed = 1000 + index
+    if AllChem.EmbedMolecule(mol, params) != 0:
+        return None
+    for bond in mol.GetBonds():
+        u, v = bond.GetBeginAtom(), bond.GetEndAtom()
+        hu = [x.GetIdx() + 1 for x in u.GetNeighbors() if x.GetSymbol() == "H"]
+        hv = [x.GetIdx() + 1 for x in v.GetNeighbors() if x.GetSymbol() == "H"]
+        if u.GetSymbol() == "C" and v.GetSymbol() == "C" and hu and hv:
+            return index, Chem.MolToMolBlock(mol) + "$$$$\n", (hu[0], hv[0])
+    return None
+
+
+def write_search_library_inputs(folder, count, processes=2):
+    """folder/search-N.sdf (every structure, for the plain scan) and
+    folder/search-N.csv (one coupling per compound, its structure inline), made
+    once; a compound RDKit cannot embed is left out. Returns (csv, sdf,
+    compounds written)."""
+    import os
+    from multiprocessing import Pool
+    sdf, table = os.path.join(folder, f"search-{count}.sdf"), os.path.join(folder, f"search-{count}.csv")
+    if not (os.path.exists(sdf) and os.path.exists(table)):
+        smiles = search_compounds(count)
+        with Pool(processes) as pool:
+            records = [r for r in pool.imap(search_record, enumerate(smiles), chunksize=200) if r]
+        with open(sdf + ".part", "w") as f:
+            for _, record, _ in records:
+                f.write(record)
+        with open(table + ".part", "w", newline="") as f:
+            w = csv.writer(f)
+            w.writerow(["compound", "molfile", "solvent", "nuclei", "j_hz"])
+            for index, record, (a, b) in records:
+                w.writerow([f"search {index + 1} {smiles[index]}", record, "CDCl3", f"H{a},H{b}", "7.0"])
+        os.replace(sdf + ".part", sdf)
+        os.replace(table + ".part", table)
+    with open(table) as f:
+        written = sum(1 for _ in csv.reader(f)) - 1
+    return table, sdf, written
