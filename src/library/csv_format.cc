@@ -22,6 +22,7 @@
 
 #include "core/csv.h"
 #include "core/parse.h"
+#include "library/compound_cache.h"
 #include "library/entry_builder.h"
 #include "library/formats.h"
 #include "predict/coupling_list.h"
@@ -154,9 +155,9 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
 
   ImportResult result;
   // Compounds by the way they were given; a failed structure stays failed.
-  std::map<std::string, std::unique_ptr<CompoundBuilder>> builders;
+  CompoundCache builders(options.compounds_whole);
   std::map<std::string, std::string> failed;
-  std::map<std::string, std::string> key_of_name;  // compound name -> builder key
+  std::map<std::string, const std::string*> key_of_name;  // compound name -> builder key (in `builders`)
   // A file of more than one batch goes to the sink as it is read, but its
   // stereo-unassigned rows are held back to the end (EntryBatch). A file of
   // one batch comes whole, its rows in file order.
@@ -172,7 +173,7 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
 
   CsvRow row;
   while (reader.next(row)) {
-    if (sink && rows.couplings >= options.batch_couplings) {
+    if (sink && (rows.couplings >= options.batch_couplings || rows.entries.size() >= options.batch_compounds)) {
       if (!in_batches) rows.move_unassigned_to(held_back);
       in_batches = true;
       sink({rows.take(), reader.position(), reader.size(), Progress::Unit::Bytes});
@@ -200,7 +201,7 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
           throw Error(name.empty() ? "the row names no compound and no structure"
                                    : fmt::format("compound '{}' has no structure in an earlier row", name),
                       where(row, "compound"), "give smiles, structure or molfile on the compound's first row");
-        key = it->second;
+        key = *it->second;
       } else {
         spec.kind = spec_column == "smiles"      ? StructureSpec::Kind::Smiles
                     : spec_column == "structure" ? StructureSpec::Kind::File
@@ -212,17 +213,17 @@ ImportResult read_csv(const std::string& path, const ImportOptions& options, con
                                                  : name;
         key = display + '\x1f' + spec_column + '\x1f' + spec.text + '\x1f' + spec.labels_file;
         if (auto f = failed.find(key); f != failed.end()) throw Error(f->second, where(row, spec_column));
-        if (!builders.count(key)) {
+        if (!builders.contains(key)) {
           try {
-            builders[key] = std::make_unique<CompoundBuilder>(display, spec, where(row, spec_column));
+            builders.add(key, std::make_unique<CompoundBuilder>(display, spec, where(row, spec_column)));
           } catch (const Error& e) {
             failed[key] = e.what_happened();
             throw;
           }
         }
-        if (!name.empty()) key_of_name[name] = key;
+        if (!name.empty()) key_of_name[name] = &builders.stored_key(key);
       }
-      CompoundBuilder& builder = *builders.at(key);
+      CompoundBuilder& builder = builders.at(key);
       if (const std::string key_given = field(row, "inchikey");
           !key_given.empty() && key_given != builder.record().inchikey)
         throw Error(fmt::format("the InChIKey {} does not match the structure ({})", key_given,

@@ -135,6 +135,7 @@ CompoundBuilder::CompoundBuilder(const std::string& name, const StructureSpec& s
     // invents residues for other formats.
     const bool pdb = spec.kind == StructureSpec::Kind::File && structure::molecule_format_of(spec.text).openbabel_id == "pdb";
     if (pdb) {
+      can_park_ = false;
       labels_ = structure::AtomLabels::for_molecule(mol_, source_, spec.labels_file);
     } else {
       labels_ = structure::AtomLabels::from_sdf_field(mol_, source_);
@@ -162,6 +163,13 @@ CompoundBuilder::CompoundBuilder(const std::string& name, const StructureSpec& s
   for (int i = 1; i <= static_cast<int>(mol_.NumAtoms()); ++i)
     record_.atoms.push_back({i, OpenBabel::OBElements::GetSymbol(mol_.GetAtom(i)->GetAtomicNum()), identity_->rank(i)});
 }
+
+CompoundBuilder::CompoundBuilder(Parked parked)
+    : mol_(molecule_from_molfile(parked.record.molfile, parked.source)),
+      labels_(structure::AtomLabels::from_sdf_field(mol_, parked.source)),
+      identity_(std::make_unique<CompoundIdentity>(mol_, parked.source, CompoundIdentity::Names::KeysOnly)),
+      record_(std::move(parked.record)),
+      source_(std::move(parked.source)) {}
 
 CouplingRecord CompoundBuilder::coupling(const std::array<std::vector<std::string>, 2>& nuclei, double j_hz,
                                          std::optional<double> sigma_hz, const Location& where) {

@@ -36,6 +36,20 @@ class CompoundBuilder {
   // vicinal::Error (at `where`) when the structure cannot be read or identified.
   CompoundBuilder(const std::string& name, const StructureSpec& spec, const Location& where);
 
+  // What a builder keeps while it is put aside (library/compound_cache.h):
+  // its record, from whose molfile the molecule, labels and keys are worked
+  // out again, as the library does for a stored compound.
+  struct Parked {
+    CompoundRecord record;
+    std::string source;
+  };
+  // vicinal::Error when the record's molfile cannot be read.
+  explicit CompoundBuilder(Parked parked);
+  // False for a structure from a PDB file: its labels come from the residues,
+  // which the molfile does not keep.
+  bool can_park() const { return can_park_; }
+  Parked park() && { return {std::move(record_), std::move(source_)}; }
+
   const CompoundRecord& record() const { return record_; }
   const OpenBabel::OBMol& molecule() const { return mol_; }
   CompoundIdentity& identity() { return *identity_; }
@@ -64,6 +78,7 @@ class CompoundBuilder {
   std::unique_ptr<CompoundIdentity> identity_;
   CompoundRecord record_;
   std::string source_;
+  bool can_park_ = true;
 };
 
 // Our molfile text for a molecule (V2000 with a fixed header line, so that the

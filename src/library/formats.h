@@ -14,19 +14,27 @@
 #include <vector>
 
 #include "core/progress.h"
+#include "library/compound_cache.h"
 #include "library/records.h"
 
 namespace vicinal::library {
 
-// Couplings per batch by default: large enough that files of everyday size come whole.
+// Couplings and compounds per batch by default: large enough that files of
+// everyday size come whole. The compound bound keeps a file of many compounds
+// with few couplings each from holding tens of thousands of records in a batch.
 inline constexpr std::size_t kBatchCouplings = 50000;
+inline constexpr std::size_t kBatchCompounds = 2000;
 
 struct ImportOptions {
   // Store the good rows and return the bad ones as rejects instead of failing
   // on the first bad row.
   bool skip_bad = false;
-  // Couplings per batch handed to a sink (read_exchange_file); tests make it small.
+  // Limits of a batch handed to a sink (read_exchange_file); tests make them small.
   std::size_t batch_couplings = kBatchCouplings;
+  std::size_t batch_compounds = kBatchCompounds;
+  // Compounds kept whole while a CSV file is read (library/compound_cache.h);
+  // tests make it small.
+  std::size_t compounds_whole = CompoundCache::kWholeByDefault;
 };
 
 struct Reject {

@@ -83,8 +83,8 @@ std::vector<std::string> content(Library& library) {
   return lines;
 }
 
-ImportOutcome import_with(Library& library, const std::string& csv, std::size_t batch, int threads) {
-  ImportOptions options;
+ImportOutcome import_with(Library& library, const std::string& csv, std::size_t batch, int threads,
+                          ImportOptions options = {}) {
   options.batch_couplings = batch;
   NoProgress progress;
   return import_file(library, csv, options, progress, threads);
@@ -122,6 +122,32 @@ TEST(Import, BatchesAndThreadsStoreWhatTheWholeFileStores) {
       EXPECT_EQ(again.stored.compounds_known, 3);
       EXPECT_EQ(again.stored.sets_known, 18);
     }
+}
+
+// Batches cut by compounds, and compounds parked between their rows (one
+// kept whole: every row of the interleaved file brings its compound back
+// from the molfile), store the same.
+TEST(Import, BatchesOfFewCompoundsAndParkedCompoundsStoreTheSame) {
+  const auto csv = write_interleaved_csv("interleaved.csv");
+  auto whole = fresh_library("whole.sqlite");
+  import_with(*whole, csv, 1000000, 1);
+  const auto expected = content(*whole);
+  for (const int threads : {1, 2})
+    for (const std::size_t compounds : {1u, 2u})
+      for (const std::size_t kept_whole : {1u, 1024u}) {
+        SCOPED_TRACE("threads " + std::to_string(threads) + ", compounds per batch " + std::to_string(compounds) +
+                     ", kept whole " + std::to_string(kept_whole));
+        ImportOptions options;
+        options.batch_compounds = compounds;
+        options.compounds_whole = kept_whole;
+        auto lib = fresh_library("batched.sqlite");
+        const auto got = import_with(*lib, csv, 1000000, threads, options);
+        EXPECT_EQ(got.stored.compounds_added, 3);
+        EXPECT_EQ(got.stored.sets_added, 18);
+        EXPECT_EQ(got.stored.couplings_duplicate, 18);
+        EXPECT_EQ(got.stored.conflicts.size(), 1u);
+        EXPECT_EQ(content(*lib), expected);
+      }
 }
 
 std::size_t stored_couplings(Library& library) {

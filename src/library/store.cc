@@ -117,6 +117,7 @@ struct StoreTransaction::Session {
         progress(progress),
         tx(db),
         find_compound(db, "SELECT id, name FROM compounds WHERE inchikey = ?"),
+        same_molfile(db, "SELECT molfile = ?2 FROM compounds WHERE id = ?1"),
         insert_compound(db, "INSERT INTO compounds (name, smiles, inchi, inchikey, molfile) VALUES (?, ?, ?, ?, ?)"),
         touch_compound(db, "UPDATE compounds SET updated_utc = strftime('%Y-%m-%dT%H:%M:%SZ', 'now') WHERE id = ?"),
         insert_atom(db, "INSERT INTO atoms (compound_id, atom_index, element, canonical_rank) VALUES (?, ?, ?, ?)"),
@@ -151,16 +152,16 @@ struct StoreTransaction::Session {
   Database& db;
   Progress* progress;
   WriteTransaction tx;
-  Statement find_compound, insert_compound, touch_compound, insert_atom, insert_label, read_atoms, read_labels,
-      read_sets, insert_set, read_couplings, find_note, insert_note, insert_fingerprint;
+  Statement find_compound, same_molfile, insert_compound, touch_compound, insert_atom, insert_label, read_atoms,
+      read_labels, read_sets, insert_set, read_couplings, find_note, insert_note, insert_fingerprint;
   CouplingInserter couplings;
   DerivedRowWriter derived;
   StoreReport report;
   std::size_t done = 0;
-  // Compounds this transaction inserted, with the molfile they came with: a
-  // later batch of the same structure continues them rather than meeting them
-  // as known compounds.
-  std::map<std::int64_t, std::string> added_compounds;
+  // Compounds this transaction inserted: a later batch of the same structure
+  // (the same molfile, compared with the stored one rather than a copy kept
+  // here, 3 kB a compound) continues them rather than meeting them as known.
+  std::set<std::int64_t> added_compounds;
   // Compounds and sets already counted in the report, as added or as known.
   std::set<std::int64_t> counted_compounds, counted_sets;
 };
@@ -210,9 +211,10 @@ void StoreTransaction::Session::add(const Entry& entry) {
     stored_name = find_compound.text(1);
   }
   find_compound.reset();
-  if (known) {
-    const auto it = added_compounds.find(compound_id);
-    known = it == added_compounds.end() || it->second != c.molfile;
+  if (known && added_compounds.count(compound_id)) {
+    same_molfile.bind(1, compound_id).bind_in_place(2, c.molfile);
+    known = !(same_molfile.step() && same_molfile.integer(0) == 1);
+    same_molfile.reset();
   }
 
   if (compound_id == 0) {
@@ -230,7 +232,7 @@ void StoreTransaction::Session::add(const Entry& entry) {
     insert_fingerprint.bind(1, compound_id).bind(2, kFingerprintKind);
     insert_fingerprint.bind_blob(3, c.fingerprint ? *c.fingerprint : compound_fingerprint(c.smiles));
     insert_fingerprint.run();
-    added_compounds.emplace(compound_id, c.molfile);
+    added_compounds.insert(compound_id);
     counted_compounds.insert(compound_id);
     ++report.compounds_added;
   } else if (known) {
