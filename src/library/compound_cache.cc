@@ -1,5 +1,8 @@
 #include "library/compound_cache.h"
 
+#include <iterator>
+#include <stdexcept>
+
 namespace vicinal::library {
 
 CompoundBuilder& CompoundCache::at(const std::string& key) {
@@ -14,7 +17,9 @@ CompoundBuilder& CompoundCache::at(const std::string& key) {
 }
 
 CompoundBuilder& CompoundCache::add(const std::string& key, std::unique_ptr<CompoundBuilder> builder) {
-  Slot& slot = slots_[key];
+  auto [it, added] = slots_.try_emplace(key);
+  if (!added) throw std::logic_error("CompoundCache::add: the key was added before");
+  Slot& slot = it->second;
   slot.whole = std::move(builder);
   slot.place = recent_.insert(recent_.begin(), &slot);
   use(slot);
