@@ -2,8 +2,8 @@
 // gave them. The most recently used stay whole (molecule, labels, identity);
 // the others are parked as their records and worked out again from their
 // molfiles when a later row names them. Without this, a file of many
-// compounds kept every compound's Open Babel molecules to its end: 7 GB for
-// 100,000 small compounds.
+// compounds kept every compound's Open Babel molecules to its end: importing
+// 100,000 small compounds took 6.9 GB (2.4 GB with it).
 #pragma once
 
 #include <cstddef>

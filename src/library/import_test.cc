@@ -143,7 +143,9 @@ TEST(Import, BatchesOfFewCompoundsAndParkedCompoundsStoreTheSame) {
         auto lib = fresh_library("batched.sqlite");
         const auto got = import_with(*lib, csv, 1000000, threads, options);
         EXPECT_EQ(got.stored.compounds_added, 3);
+        EXPECT_EQ(got.stored.compounds_known, 0);  // continued over batches, not met as stored before
         EXPECT_EQ(got.stored.sets_added, 18);
+        EXPECT_EQ(got.stored.sets_known, 0);
         EXPECT_EQ(got.stored.couplings_duplicate, 18);
         EXPECT_EQ(got.stored.conflicts.size(), 1u);
         EXPECT_EQ(content(*lib), expected);
