@@ -443,6 +443,7 @@ def main():
     targets.append(("simulation of 12 coupled spins < 2 s (one thread)",
                     f"wall {fmt_s(twelve[0][0])}, CPU {fmt_s(twelve[0][1])}" if twelve else "not measured",
                     bool(twelve) and twelve[0][1] < 2))
+
     def in_process(name):
         found = [b for b in gb["library_bench"] if b["name"] == name and not b.get("error_occurred")]
         return found[0] if found else None

@@ -257,8 +257,7 @@ def search_record(job):
 def write_search_library_inputs(folder, count, processes=2):
     """folder/search-N.sdf (every structure, for the plain scan) and
     folder/search-N.csv (one coupling per compound, its structure inline), made
-    once; a compound RDKit cannot embed is left out. Returns (csv, sdf,
-    compounds written)."""
+    once; a compound RDKit cannot embed is left out. Returns (csv, sdf)."""
     import os
     from multiprocessing import Pool
     sdf, table = os.path.join(folder, f"search-{count}.sdf"), os.path.join(folder, f"search-{count}.csv")
@@ -276,6 +275,4 @@ def write_search_library_inputs(folder, count, processes=2):
                 w.writerow([f"search {index + 1} {smiles[index]}", record, "CDCl3", f"H{a},H{b}", "7.0"])
         os.replace(sdf + ".part", sdf)
         os.replace(table + ".part", table)
-    with open(table) as f:
-        written = sum(1 for _ in csv.reader(f)) - 1
-    return table, sdf, written
+    return table, sdf

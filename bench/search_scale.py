@@ -41,12 +41,15 @@ def main():
     print(f"search: {args.compounds:,} structures (RDKit, first time only)", flush=True)
     made_before = os.path.exists(os.path.join(work, f"search-{args.compounds}.csv"))
     started = time.perf_counter()
-    table, sdf, _ = make_inputs.write_search_library_inputs(work, args.compounds)
+    table, sdf = make_inputs.write_search_library_inputs(work, args.compounds)
     made_in = time.perf_counter() - started
 
     library = os.path.join(work, f"search-{args.compounds}.sqlite")
     if not os.path.exists(library):
         print("search: importing", flush=True)
+        for suffix in ("", "-wal", "-shm"):  # what a failed run left
+            if os.path.exists(library + ".part" + suffix):
+                os.remove(library + ".part" + suffix)
         compare.run(V + ["--library", library + ".part", "library", "init"])
         import_wall, import_rss, _ = compare.run(V + ["--library", library + ".part", "library", "import", table])
         os.replace(library + ".part", library)

@@ -7,7 +7,7 @@ source "$(dirname "$0")/lib.sh"
 command -v script >/dev/null || fail "script (util-linux) is needed for this test"
 
 # Ethanol (SMILES CCO): methyl H 4-6, CH2 H 7-8. One coupling in each of
-# 2,000 measurement sets, about 90 kB.
+# 2,000 measurement sets, about 77 kB.
 {
   echo "compound,smiles,measurement,solvent,nuclei,j_hz"
   for set in $(seq 2000); do echo "ethanol,CCO,run $set,CDCl3,\"H4,H7\",7.1"; done
