@@ -30,7 +30,7 @@ bench: deps
 	/usr/bin/python3 bench/compare.py --build $(BENCH_BUILD)
 
 # Substructure search over a 100,000-compound library against a plain Open
-# Babel scan (writes bench/results/search-scale.md; about 15 minutes the first
+# Babel scan (writes bench/results/search-scale.md; about 11 minutes the first
 # time, while RDKit embeds the structures).
 bench-search: deps
 	cmake -S . -B $(BENCH_BUILD) -DCMAKE_BUILD_TYPE=Release -DVICINAL_BUILD_BENCHMARKS=ON $(CMAKE_FLAGS)

@@ -1,6 +1,6 @@
 """Substructure search over a library of 100,000 compounds, side by side with
 a plain Open Babel scan of the same molecules (opt-in: `make bench-search`,
-about 15 minutes the first time, as RDKit embeds every structure; the inputs
+about 11 minutes the first time, 7 of them RDKit embedding every structure; the inputs
 are kept in build-bench/bench-inputs). Writes bench/results/search-scale.md.
 
 Run with /usr/bin/python3 (it needs RDKit and Open Babel's Python module):
