@@ -1,7 +1,8 @@
 """Substructure search over a library of 100,000 compounds, side by side with
 a plain Open Babel scan of the same molecules (opt-in: `make bench-search`,
-about 11 minutes the first time, 7 of them RDKit embedding every structure; the inputs
-are kept in build-bench/bench-inputs). Writes bench/results/search-scale.md.
+about 11 minutes the first time, 7 of them RDKit embedding every structure;
+the inputs are kept in build-bench/bench-inputs). Writes
+bench/results/search-scale.md.
 
 Run with /usr/bin/python3 (it needs RDKit and Open Babel's Python module):
     /usr/bin/python3 bench/search_scale.py --build build-bench
